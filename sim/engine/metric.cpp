@@ -1,0 +1,33 @@
+#include "sim/engine/metric.hpp"
+
+namespace larder {
+
+namespace {
+constexpr std::array<MetricInfo, kMetricCount> kInfo = {{
+    {"demand_units", "units", "primary customers (true demand)", 0},
+    {"sold_units", "units", "units sold to customers at any price", 0},
+    {"substitute_units", "units", "units sold to customers whose first choice was out", 0},
+    {"lost_units", "units", "customers who left without buying", -1},
+    {"waste_units", "units", "units discarded", -1},
+    {"salvaged_units", "units", "units sold to a secondary outlet at the salvage value", 0},
+    {"donated_units", "units", "units given away (not waste)", 0},
+    {"delivered_units", "units", "units delivered", 0},
+    {"waste_share", "share", "waste_units / delivered_units", -1},
+    {"in_stock_at_close", "share", "open store-item-days with a unit left at close", +1},
+    {"no_stockout_share", "share", "open store-item-days on which every customer was served (type 1)", +1},
+    {"fill_rate", "share", "customers served by the item itself / demand (type 2)", +1},
+    {"served_share", "share", "customers served by the item or a substitute / demand", +1},
+    {"revenue", "money", "sales revenue at every price, plus salvage revenue", +1},
+    {"purchase_cost", "money", "delivered units x unit cost", -1},
+    {"disposal_cost", "money", "wasted units x disposal cost", -1},
+    {"penalty_cost", "money", "customers who left without buying x stockout penalty", -1},
+    {"profit", "money", "revenue - purchase, disposal and penalty costs", +1},
+    {"waste_value", "money", "wasted units x unit cost", -1},
+    {"waste_kg", "kg", "wasted units x weight", -1},
+    {"co2e_kg", "kg", "wasted units x CO2e per unit", -1},
+}};
+}  // namespace
+
+const MetricInfo& metric_info(Metric m) { return kInfo[static_cast<std::size_t>(m)]; }
+
+}  // namespace larder

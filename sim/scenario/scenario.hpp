@@ -1,0 +1,139 @@
+#pragma once
+// The typed scenario: what `load_scenario` builds from a YAML file once, after validation.
+// Everything downstream (engine, policies, reports) reads these structs, never YAML, except
+// policy parts, which validate their own parameters from `PartSpec::params` (see policies/).
+
+#include <yaml-cpp/yaml.h>
+
+#include <array>
+#include <cstdint>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "sim/scenario/diagnostics.hpp"
+
+namespace larder {
+
+inline constexpr int kDaysPerWeek = 7;
+/// Weekday names as used in scenario files, Monday first (index 0).
+inline constexpr std::array<const char*, kDaysPerWeek> kWeekdayNames = {"mon", "tue", "wed", "thu",
+                                                                        "fri", "sat", "sun"};
+using WeekdaySet = std::array<bool, kDaysPerWeek>;
+inline constexpr WeekdaySet kAllWeekdays = {true, true, true, true, true, true, true};
+
+/// Family of the daily demand count given its mean (model.md, Demand).
+enum class DemandFamily : std::uint8_t { poisson, negative_binomial, normal };
+const char* to_string(DemandFamily f);
+
+/// What happens to units at the close of their last sellable day (model.md, step 5).
+enum class Leftovers : std::uint8_t { discard, salvage, donate, discount_next_day };
+const char* to_string(Leftovers l);
+
+/// The demand of one item at a size-1 store.
+struct DemandSpec {
+  double base = 0.0;  ///< mean per open day at a size-1 store
+  std::array<double, kDaysPerWeek> weekday = {1, 1, 1, 1, 1, 1, 1};  ///< multipliers
+  DemandFamily family = DemandFamily::poisson;
+  /// Spread for negative_binomial and normal: exactly one of cv or dispersion.
+  std::optional<double> cv;          ///< variance = (cv * mean)^2
+  std::optional<double> dispersion;  ///< k: variance = mean + mean^2 / k
+};
+
+struct Item {
+  std::string id;
+  std::map<std::string, std::string> attributes;
+  double price = 0.0;
+  double unit_cost = 0.0;
+  int shelf_life_days = 1;
+  int pack_size = 1;
+  Leftovers leftovers = Leftovers::discard;
+  double salvage_value = 0.0;     ///< per unit leaving by salvage
+  double disposal_cost = 0.0;     ///< per wasted unit
+  double stockout_penalty = 0.0;  ///< per customer who leaves without buying (g)
+  std::optional<double> weight_kg;
+  std::optional<double> co2e_kg;  ///< CO2e per unit
+  DemandSpec demand;
+};
+
+struct Store {
+  std::string id;
+  double size = 1.0;  ///< multiplies every item's base demand
+  WeekdaySet open_weekdays = kAllWeekdays;
+  std::map<std::string, std::string> attributes;
+};
+
+/// A dated demand multiplier or closure (day index from the start of the horizon).
+struct CalendarEvent {
+  int day = 0;
+  double demand = 1.0;
+  bool closed = false;
+  std::vector<std::string> stores;  ///< empty = every store
+};
+
+struct Calendar {
+  WeekdaySet open_weekdays = kAllWeekdays;  ///< default for stores that list none
+  int open_hour = 8;
+  int close_hour = 20;
+  std::vector<CalendarEvent> events;
+};
+
+struct Horizon {
+  int days = 364;
+  int warmup_days = 28;
+  int start_weekday = 0;                  ///< 0 = Monday
+  std::optional<std::string> start_date;  ///< ISO date, sets start_weekday
+};
+
+struct Logistics {
+  int lead_time_days = 1;
+  WeekdaySet delivery_weekdays = kAllWeekdays;
+};
+
+/// A policy part as written in the scenario: a method name plus its own parameters, which the
+/// part validates when it is created from the registry.
+struct PartSpec {
+  std::string method;
+  YAML::Node params;  ///< the mapping (or scalar shorthand) as written
+  Location where;
+  std::string path;  ///< e.g. "policies[1].quantity", for messages
+};
+
+struct PolicySpec {
+  std::string name;
+  Location where;
+  PartSpec forecast;
+  PartSpec censoring;
+  PartSpec quantity;
+  std::vector<PartSpec> adjustments;
+};
+
+/// A validated scenario (scenario.md).
+struct Scenario {
+  int format = 1;
+  std::string name;
+  std::string file;  ///< where it was read from ("<demo>" for the built-in demo)
+  std::uint64_t seed = 0;
+  bool seed_given = false;  ///< false: seed was drawn at load time and must be printed
+  Horizon horizon;
+  int replications = 100;
+  Calendar calendar;
+  std::string currency = "EUR";
+  std::vector<Store> stores;
+  std::vector<Item> items;
+  double fifo_share = 0.5;
+  Logistics logistics;
+  std::vector<PolicySpec> policies;
+  int baseline = 0;  ///< index into policies
+
+  int scored_days() const { return horizon.days - horizon.warmup_days; }
+  /// Weekday (0 = Monday) of day index `day`.
+  int weekday_of(int day) const { return (horizon.start_weekday + day) % kDaysPerWeek; }
+  /// Whether store `s` is open on day `day` (its weekdays and closure events).
+  bool is_open(int store, int day) const;
+  /// Product of the demand multipliers of events on `day` for store `s` (1 when none).
+  double event_multiplier(int store, int day) const;
+};
+
+}  // namespace larder
