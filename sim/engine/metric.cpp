@@ -14,7 +14,8 @@ constexpr std::array<MetricInfo, kMetricCount> kInfo = {{
     {"delivered_units", "units", "units delivered", 0},
     {"waste_share", "share", "waste_units / delivered_units", -1},
     {"in_stock_at_close", "share", "open store-item-days with a unit left at close", +1},
-    {"no_stockout_share", "share", "open store-item-days on which every customer was served (type 1)", +1},
+    {"no_stockout_share", "share",
+     "open store-item-days on which every customer was served (type 1)", +1},
     {"fill_rate", "share", "customers served by the item itself / demand (type 2)", +1},
     {"served_share", "share", "customers served by the item or a substitute / demand", +1},
     {"revenue", "money", "sales revenue at every price, plus salvage revenue", +1},
@@ -28,6 +29,8 @@ constexpr std::array<MetricInfo, kMetricCount> kInfo = {{
 }};
 }  // namespace
 
-const MetricInfo& metric_info(Metric m) { return kInfo[static_cast<std::size_t>(m)]; }
+const MetricInfo& metric_info(Metric m) {
+  return kInfo[static_cast<std::size_t>(m)];
+}
 
 }  // namespace larder

@@ -42,12 +42,18 @@ struct MetricInfo {
 };
 
 const MetricInfo& metric_info(Metric m);
-inline std::string_view metric_name(Metric m) { return metric_info(m).name; }
+inline std::string_view metric_name(Metric m) {
+  return metric_info(m).name;
+}
 
 /// All metric values of one policy in one replication, indexed by Metric.
 using MetricVector = std::array<double, kMetricCount>;
 
-inline double& at(MetricVector& v, Metric m) { return v[static_cast<std::size_t>(m)]; }
-inline double at(const MetricVector& v, Metric m) { return v[static_cast<std::size_t>(m)]; }
+inline double& at(MetricVector& v, Metric m) {
+  return v[static_cast<std::size_t>(m)];
+}
+inline double at(const MetricVector& v, Metric m) {
+  return v[static_cast<std::size_t>(m)];
+}
 
 }  // namespace larder

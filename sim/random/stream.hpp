@@ -4,9 +4,8 @@
 // `advance(t * draws_per_day)`: any worker can compute any cell and results never depend on
 // which thread ran it or in what order (style.md, "Randomness is a function of coordinates").
 
-#include <pcg_random.hpp>
-
 #include <cstdint>
+#include <pcg_random.hpp>
 
 namespace larder {
 
@@ -58,6 +57,8 @@ inline pcg32 make_stream_at(const StreamKey& k, int day, std::uint64_t draws_per
 }
 
 /// A 32-bit output mapped to the open interval (0, 1): (x + 0.5) / 2^32.
-constexpr double to_unit(std::uint32_t x) { return (static_cast<double>(x) + 0.5) * 0x1p-32; }
+constexpr double to_unit(std::uint32_t x) {
+  return (static_cast<double>(x) + 0.5) * 0x1p-32;
+}
 
 }  // namespace larder

@@ -14,12 +14,7 @@ std::string number_text(double v) {
   return fmt::format("{}", v);
 }
 
-std::string node_text(const YAML::Node& node) {
-  if (node.IsScalar()) return node.Scalar();
-  if (node.IsSequence()) return "a list";
-  if (node.IsMap()) return "a mapping";
-  return "nothing";
-}
+std::string node_text(const YAML::Node& node) { return describe_value(node); }
 
 }  // namespace
 
@@ -48,6 +43,13 @@ Location location_of(const YAML::Node& node, const std::string& file) {
   return {file, m.line + 1, m.column + 1};
 }
 
+std::string describe_value(const YAML::Node& node) {
+  if (node.IsScalar()) return node.Scalar();
+  if (node.IsSequence()) return "a list";
+  if (node.IsMap()) return "a mapping";
+  return "nothing";
+}
+
 bool is_integral(double v) { return std::abs(v - std::round(v)) < 1e-9; }
 
 int edit_distance(std::string_view a, std::string_view b) {
@@ -71,6 +73,11 @@ std::optional<double> read_number(const YAML::Node& node, const std::string& wha
   if (!node.IsScalar() || !YAML::convert<double>::decode(node, v) || std::isnan(v)) {
     diag.error(location_of(node, file), fmt::format("{} must be a number (got {})", what,
                                                     node_text(node)));
+    return std::nullopt;
+  }
+  if (std::isinf(v)) {
+    diag.error(location_of(node, file),
+               fmt::format("{} must be a finite number (got {})", what, node.Scalar()));
     return std::nullopt;
   }
   if (!range.contains(v)) {
@@ -103,6 +110,15 @@ Location Params::location(std::string_view key) const {
   return location();
 }
 
+Location Params::key_location(std::string_view key) const {
+  if (node_.IsMap()) {
+    for (const auto& kv : node_) {
+      if (kv.first.IsScalar() && kv.first.Scalar() == key) return location_of(kv.first, file_);
+    }
+  }
+  return location();
+}
+
 void Params::error(std::string_view key, std::string message, std::string hint) {
   diag_->error(location(key), std::move(message), std::move(hint));
 }
@@ -127,6 +143,11 @@ std::optional<int> Params::optional_integer(std::string_view key, Range range) {
   if (!v) return std::nullopt;
   if (!is_integral(*v)) {
     error(key, fmt::format("{} must be a whole number (got {})", path_of(key), *v));
+    return std::nullopt;
+  }
+  if (std::abs(*v) > std::numeric_limits<int>::max()) {
+    error(key,
+          fmt::format("{} is too large (got {})", path_of(key), node_[std::string(key)].Scalar()));
     return std::nullopt;
   }
   return static_cast<int>(std::lround(*v));

@@ -50,7 +50,11 @@ class Params {
   std::string path_of(std::string_view key) const;
 
   bool has(std::string_view key);
+  /// The mapping as written.
+  const YAML::Node& node() const { return node_; }
   Location location() const;
+  /// Where the key itself is written (or the mapping itself when the key is absent).
+  Location key_location(std::string_view key) const;
   /// Where the key's value is (or the mapping itself when the key is absent).
   Location location(std::string_view key) const;
 
@@ -86,6 +90,9 @@ class Params {
 /// or is outside `range`. `what` names the value in messages.
 std::optional<double> read_number(const YAML::Node& node, const std::string& what, Range range,
                                   const std::string& file, Diagnostics& diag);
+
+/// A value as quoted in messages: the scalar itself, or "a list", "a mapping", "nothing".
+std::string describe_value(const YAML::Node& node);
 
 /// Whether `v` is an integer value (within 1e-9).
 bool is_integral(double v);

@@ -1,0 +1,80 @@
+#include <fmt/format.h>
+
+#include <nlohmann/json.hpp>
+#include <thread>
+
+#include "cli/commands.hpp"
+#include "cli/progress.hpp"
+#include "sim/runner/run_estimate.hpp"
+
+namespace larder {
+
+namespace {
+std::string bytes_text(std::size_t b) {
+  const double mib = static_cast<double>(b) / (1024.0 * 1024.0);
+  return mib >= 1024.0 ? fmt::format("{:.1f} GiB", mib / 1024.0) : fmt::format("{:.0f} MiB", mib);
+}
+
+std::string policy_text(const PolicySpec& p) {
+  std::string s = fmt::format("forecast {}, censoring {}, quantity {}", p.forecast.method,
+                              p.censoring.method, p.quantity.method);
+  for (const auto& a : p.adjustments) s += fmt::format(", {}", a.method);
+  return s;
+}
+}  // namespace
+
+int check_command(const CommonOptions& args) {
+  const PreparedScenario prepared = prepare_scenario(args.scenario, args.overrides);
+  const Scenario& sc = prepared.scenario;
+  const int threads = args.threads > 0
+                          ? args.threads
+                          : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+  const RunEstimate e = estimate_run(sc, prepared.policies, threads);
+  const auto& baseline = sc.policies[static_cast<size_t>(sc.baseline)].name;
+
+  if (args.format == "json") {
+    nlohmann::json j;
+    j["scenario"] = sc.name;
+    j["file"] = sc.file;
+    j["stores"] = sc.stores.size();
+    j["items"] = sc.items.size();
+    j["horizon_days"] = sc.horizon.days;
+    j["warmup_days"] = sc.horizon.warmup_days;
+    j["replications"] = sc.replications;
+    j["seed"] = sc.seed;
+    j["open_store_item_days"] = e.open_store_item_days;
+    j["scored_store_item_days"] = e.scored_store_item_days;
+    j["poisson_fallback_days"] = e.poisson_fallback_days;
+    j["estimated_seconds"] = e.seconds;
+    j["estimated_memory_bytes"] = e.memory_bytes;
+    j["threads"] = threads;
+    j["baseline"] = baseline;
+    for (const auto& p : sc.policies)
+      j["policies"].push_back({{"name", p.name}, {"parts", policy_text(p)}});
+    fmt::print("{}\n", j.dump(2));
+    return 0;
+  }
+  fmt::print("{}: scenario '{}' is valid\n", sc.file, sc.name);
+  fmt::print("  network       {} stores x {} items\n", sc.stores.size(), sc.items.size());
+  fmt::print("  horizon       {} days ({} warm-up, {} scored), {} replications, seed {}{}\n",
+             sc.horizon.days, sc.horizon.warmup_days, sc.scored_days(), sc.replications, sc.seed,
+             sc.seed_given ? "" : " (drawn at random)");
+  fmt::print(
+      "  store-item-days  {} open per replication ({} scored), {} in all\n", e.open_store_item_days,
+      e.scored_store_item_days,
+      e.open_store_item_days * sc.replications * static_cast<std::int64_t>(sc.policies.size()));
+  if (e.poisson_fallback_days > 0) {
+    fmt::print(
+        "  note          {} open store-item-days per replication have a negative binomial\n"
+        "                whose cv is too low to exceed the mean; they are drawn as Poisson\n",
+        e.poisson_fallback_days);
+  }
+  fmt::print("  policies      {} (baseline: {})\n", sc.policies.size(), baseline);
+  for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(p));
+  fmt::print("  estimate      about {} on {} thread{}, about {} of memory\n",
+             format_duration(e.seconds), threads, threads == 1 ? "" : "s",
+             bytes_text(e.memory_bytes));
+  return 0;
+}
+
+}  // namespace larder

@@ -1,0 +1,61 @@
+// `critical_fractile`: the newsvendor quantity, the smallest Q with
+// P(D <= Q) >= (p - c + g) / (p - s + g) for price p, unit cost c, recovery s per leftover unit
+// (the salvage value when leftovers are salvaged, else 0) and stockout penalty g (Arrow, Harris
+// and Marschak 1951; Nahmias, Production and Operations Analysis, the newsvendor chapter).
+
+#include "policies/quantity/critical_fractile.hpp"
+
+#include <fmt/format.h>
+
+#include "policies/quantity/fractile_rule.hpp"
+#include "policies/registry.hpp"
+
+namespace larder {
+
+double critical_ratio(const Item& item, double penalty) {
+  const double s = item.leftovers == Leftovers::salvage ? item.salvage_value : 0.0;
+  const double under = item.price - item.unit_cost + penalty;
+  const double denominator = item.price - s + penalty;
+  if (under <= 0.0 || denominator <= 0.0) return 0.0;
+  return std::min(under / denominator, 1.0);
+}
+
+namespace {
+class CriticalFractile : public QuantityMethod {
+ public:
+  CriticalFractile(std::vector<double> ratio, std::vector<DemandFamily> family)
+      : ratio_(std::move(ratio)), family_(std::move(family)) {}
+  std::unique_ptr<OrderRule> make(const StoreView&) const override {
+    return std::make_unique<FractileRule>(ratio_, family_, 0);
+  }
+
+ private:
+  std::vector<double> ratio_;
+  std::vector<DemandFamily> family_;
+};
+}  // namespace
+
+void register_critical_fractile(PolicyRegistry& r) {
+  r.quantities.add(
+      {"critical_fractile",
+       "newsvendor: smallest Q with P(D <= Q) >= (p - c + g) / (p - s + g) from item economics "
+       "(penalty: overrides the items' stockout_penalty; assume: family)",
+       [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
+         const auto penalty = ctx.params.optional_number("penalty", Range::at_least(0.0));
+         std::vector<double> ratio;
+         for (const Item& item : ctx.scenario.items) {
+           const double cr = critical_ratio(item, penalty.value_or(item.stockout_penalty));
+           if (cr >= 1.0) {
+             ctx.params.error("",
+                              fmt::format("{}: item '{}' has a critical ratio of 1 (its "
+                                          "leftovers recover the full cost)",
+                                          ctx.params.path(), item.id),
+                              "salvage_value must be below unit_cost");
+           }
+           ratio.push_back(cr);
+         }
+         return std::make_unique<CriticalFractile>(std::move(ratio), read_assume(ctx));
+       }});
+}
+
+}  // namespace larder

@@ -1,0 +1,35 @@
+#pragma once
+// Order up to a quantile of the forecast demand: the shared core of `critical_fractile` and
+// `in_stock_target`. The target is the smallest Q with P(D <= Q) >= p under the family the
+// rule assumes (`assume`), plus `extra` units; the order is the target minus usable stock and
+// units already on order, never below 0.
+
+#include <vector>
+
+#include "policies/quantity_rule.hpp"
+#include "sim/scenario/scenario.hpp"
+
+namespace larder {
+
+/// Reads `assume: poisson | negative_binomial | normal`; the default is each item's own demand
+/// family.
+std::vector<DemandFamily> read_assume(PartContext& ctx);
+
+/// Smallest Q >= 0 with P(D <= Q) >= p for a count with the forecast's mean and variance
+/// under `family` (normal: P(D <= x) = Phi((x + 0.5 - mean) / sd), policies.md).
+int forecast_quantile(const DemandForecast& f, DemandFamily family, double p);
+
+class FractileRule : public OrderRule {
+ public:
+  /// One probability and family per item; `extra` is added to the quantile.
+  FractileRule(std::vector<double> probability, std::vector<DemandFamily> family, int extra);
+  void decide(const OrderContext& ctx, std::span<const OrderInput> in, std::span<int> out) override;
+
+ private:
+  std::vector<double> probability_;
+  std::vector<DemandFamily> family_;
+  std::vector<double> z_;  ///< normal quantile of each probability (for the normal family)
+  int extra_;
+};
+
+}  // namespace larder

@@ -1,0 +1,131 @@
+#include "reports/atomic_file.hpp"
+
+#include <fcntl.h>
+#include <fmt/format.h>
+#include <unistd.h>
+
+#include <atomic>
+#include <cerrno>
+#include <stdexcept>
+#include <string>
+#include <system_error>
+#include <utility>
+
+namespace larder {
+
+namespace {
+
+namespace fs = std::filesystem;
+
+std::string errno_text(int err) {
+  return std::generic_category().message(err);
+}
+
+[[noreturn]] void fail(const fs::path& path, std::string_view reason) {
+  throw std::runtime_error(fmt::format("cannot write {}: {}", path.string(), reason));
+}
+
+/// A name in the same folder as `path` that no other writer (thread or process) uses.
+fs::path temporary_name(const fs::path& path) {
+  static std::atomic<unsigned long> counter{0};
+  const auto n = counter.fetch_add(1, std::memory_order_relaxed);
+  fs::path tmp = path;
+  tmp.replace_filename(
+      fmt::format(".{}.tmp-{}-{}", path.filename().string(), static_cast<long>(::getpid()), n));
+  return tmp;
+}
+
+/// Closes the file descriptor and removes the temporary file unless released.
+class TemporaryFile {
+ public:
+  TemporaryFile(fs::path path, int fd) : path_(std::move(path)), fd_(fd) {}
+  TemporaryFile(const TemporaryFile&) = delete;
+  TemporaryFile& operator=(const TemporaryFile&) = delete;
+  ~TemporaryFile() {
+    if (fd_ >= 0) ::close(fd_);
+    if (!released_) {
+      std::error_code ignored;
+      fs::remove(path_, ignored);
+    }
+  }
+
+  int fd() const { return fd_; }
+  const fs::path& path() const { return path_; }
+
+  /// Closes the descriptor; returns 0 or an errno value.
+  int close() {
+    const int rc = ::close(fd_);
+    fd_ = -1;
+    return rc == 0 ? 0 : errno;
+  }
+  /// The file has been renamed to its final name: keep it.
+  void release() { released_ = true; }
+
+ private:
+  fs::path path_;
+  int fd_ = -1;
+  bool released_ = false;
+};
+
+/// Asks the file system to record the rename durably; best effort, as some file systems refuse.
+void sync_folder(const fs::path& dir) {
+  const int fd = ::open(dir.empty() ? "." : dir.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+  if (fd < 0) return;
+  ::fsync(fd);
+  ::close(fd);
+}
+
+}  // namespace
+
+void write_file_atomically(const fs::path& path, std::string_view content) {
+  if (path.filename().empty()) fail(path, "the path names no file");
+  const fs::path tmp_path = temporary_name(path);
+  const int fd = ::open(tmp_path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+  if (fd < 0) {
+    fail(path,
+         fmt::format("cannot create temporary file {}: {}", tmp_path.string(), errno_text(errno)));
+  }
+  TemporaryFile tmp(tmp_path, fd);
+
+  const char* data = content.data();
+  std::size_t left = content.size();
+  while (left > 0) {
+    const ssize_t written = ::write(tmp.fd(), data, left);
+    if (written < 0) {
+      if (errno == EINTR) continue;
+      fail(path, fmt::format("writing {} failed: {}", tmp_path.string(), errno_text(errno)));
+    }
+    data += written;
+    left -= static_cast<std::size_t>(written);
+  }
+  if (::fsync(tmp.fd()) != 0) {
+    fail(path, fmt::format("flushing {} failed: {}", tmp_path.string(), errno_text(errno)));
+  }
+  if (const int err = tmp.close(); err != 0) {
+    fail(path, fmt::format("closing {} failed: {}", tmp_path.string(), errno_text(err)));
+  }
+
+  std::error_code ec;
+  fs::rename(tmp_path, path, ec);
+  if (ec) {
+    fail(path,
+         fmt::format("renaming {} to the final name failed: {}", tmp_path.string(), ec.message()));
+  }
+  tmp.release();
+  sync_folder(path.parent_path());
+}
+
+void ensure_directory(const fs::path& dir) {
+  std::error_code ec;
+  fs::create_directories(dir, ec);
+  if (ec) {
+    throw std::runtime_error(
+        fmt::format("cannot create folder {}: {}", dir.string(), ec.message()));
+  }
+  if (!fs::is_directory(dir, ec)) {
+    throw std::runtime_error(
+        fmt::format("cannot create folder {}: a file of that name exists", dir.string()));
+  }
+}
+
+}  // namespace larder

@@ -1,0 +1,24 @@
+#include "reports/csv.hpp"
+
+#include <fmt/format.h>
+
+namespace larder {
+
+std::string csv_field(std::string_view field) {
+  if (field.find_first_of(",\"\r\n") == std::string_view::npos) return std::string(field);
+  std::string out;
+  out.reserve(field.size() + 2);
+  out += '"';
+  for (char c : field) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  out += '"';
+  return out;
+}
+
+std::string csv_number(double value) {
+  return fmt::format("{}", value);
+}
+
+}  // namespace larder

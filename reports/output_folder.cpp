@@ -1,0 +1,17 @@
+#include "reports/output_folder.hpp"
+
+#include "reports/atomic_file.hpp"
+#include "reports/metrics_csv.hpp"
+#include "reports/replications_csv.hpp"
+#include "reports/summary_json.hpp"
+
+namespace larder {
+
+void write_run_outputs(const RunResult& result, const std::filesystem::path& dir) {
+  ensure_directory(dir);
+  write_file_atomically(dir / "summary.json", summary_json_text(result));
+  write_file_atomically(dir / "metrics.csv", metrics_csv(result));
+  write_file_atomically(dir / "replications.csv", replications_csv(result));
+}
+
+}  // namespace larder

@@ -1,0 +1,51 @@
+#include "reports/output_folder.hpp"
+
+#include <catch2/catch.hpp>
+#include <fstream>
+#include <sstream>
+
+#include "reports/metrics_csv.hpp"
+#include "reports/replications_csv.hpp"
+#include "reports/sample_run.test.hpp"
+#include "reports/summary_json.hpp"
+
+namespace fs = std::filesystem;
+
+namespace {
+
+std::string read_all(const fs::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+}  // namespace
+
+TEST_CASE("write_run_outputs creates the folder and writes the three files", "[reports]") {
+  larder::test::ScratchDir scratch("output-folder");
+  const fs::path dir = scratch.path() / "larder-out" / "two-shops";
+  larder::RunResult r = larder::test::sample_run();
+  larder::write_run_outputs(r, dir);
+  CHECK(larder::test::folder_entries(dir) ==
+        std::vector<std::string>{"metrics.csv", "replications.csv", "summary.json"});
+  CHECK(read_all(dir / "summary.json") == larder::summary_json_text(r));
+  CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
+  CHECK(read_all(dir / "replications.csv") == larder::replications_csv(r));
+
+  // A second run into the same folder replaces the files whole.
+  r.policies.resize(1);
+  r.values.resize(1);
+  larder::write_run_outputs(r, dir);
+  CHECK(larder::test::folder_entries(dir).size() == 3);
+  CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
+  CHECK(larder::test::parse_csv(read_all(dir / "replications.csv")).size() == 1 + 5);
+}
+
+TEST_CASE("write_run_outputs reports a folder it cannot create", "[reports]") {
+  larder::test::ScratchDir scratch("output-blocked");
+  const fs::path blocker = scratch.path() / "larder-out";
+  std::ofstream(blocker) << "a file, not a folder";
+  CHECK_THROWS_WITH(larder::write_run_outputs(larder::test::sample_run(), blocker / "two-shops"),
+                    Catch::Contains("two-shops"));
+}

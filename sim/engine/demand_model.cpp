@@ -1,0 +1,71 @@
+#include "sim/engine/demand_model.hpp"
+
+namespace larder {
+
+DemandModel::DemandModel(const Scenario& scenario) : scenario_(&scenario) {
+  const int stores = static_cast<int>(scenario.stores.size());
+  const int items = static_cast<int>(scenario.items.size());
+  const int days = scenario.horizon.days;
+  weekday_mean_.reserve(static_cast<size_t>(stores * items * kDaysPerWeek));
+  samplers_.reserve(weekday_mean_.capacity());
+  for (int s = 0; s < stores; ++s) {
+    for (int i = 0; i < items; ++i) {
+      const Item& it = scenario.items[static_cast<size_t>(i)];
+      for (int w = 0; w < kDaysPerWeek; ++w) {
+        const double m = it.demand.base * scenario.stores[static_cast<size_t>(s)].size *
+                         it.demand.weekday[static_cast<size_t>(w)];
+        weekday_mean_.push_back(m);
+        samplers_.emplace_back(law_with_mean(i, m));
+      }
+    }
+  }
+  plain_day_.resize(static_cast<size_t>(stores * days));
+  open_day_.resize(plain_day_.size());
+  event_factor_.resize(plain_day_.size());
+  for (int s = 0; s < stores; ++s) {
+    for (int t = 0; t < days; ++t) {
+      const size_t k = static_cast<size_t>(s * days + t);
+      open_day_[k] = scenario.is_open(s, t) ? 1 : 0;
+      event_factor_[k] = scenario.event_multiplier(s, t);
+      plain_day_[k] = (open_day_[k] != 0 && event_factor_[k] == 1.0) ? 1 : 0;
+    }
+  }
+}
+
+std::size_t DemandModel::index(int store, int item, int weekday) const {
+  const size_t items = scenario_->items.size();
+  return (static_cast<size_t>(store) * items + static_cast<size_t>(item)) * kDaysPerWeek +
+         static_cast<size_t>(weekday);
+}
+
+CountLaw DemandModel::law_with_mean(int item, double mean) const {
+  const DemandSpec& d = scenario_->items[static_cast<size_t>(item)].demand;
+  return CountLaw::make(d.family, mean, d.cv, d.dispersion);
+}
+
+double DemandModel::mean(int store, int item, int day) const {
+  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  if (open_day_[k] == 0) return 0.0;
+  return weekday_mean_[index(store, item, scenario_->weekday_of(day))] * event_factor_[k];
+}
+
+CountLaw DemandModel::law(int store, int item, int day) const {
+  return law_with_mean(item, mean(store, item, day));
+}
+
+CountLaw DemandModel::weekday_law(int store, int item, int weekday) const {
+  return law_with_mean(item, weekday_mean_[index(store, item, weekday)]);
+}
+
+int DemandModel::sample(int store, int item, int day, double u) const {
+  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  if (plain_day_[k] != 0) return samplers_[index(store, item, scenario_->weekday_of(day))](u);
+  if (open_day_[k] == 0) return 0;
+  return law(store, item, day).quantile(u);
+}
+
+std::size_t DemandModel::bytes_per_store_item() const {
+  return kDaysPerWeek * (sizeof(double) + sizeof(CountSampler));
+}
+
+}  // namespace larder

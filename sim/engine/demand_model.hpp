@@ -1,0 +1,41 @@
+#pragma once
+// The true demand of every store-item-day (model.md, Demand): the mean
+// base(i) * size(s) * weekday(i, wd(t)) * event(t) and the count's law. Counts are drawn by
+// inversion of a uniform, so the same uniform always gives the same (or a monotonically
+// shifted) count: the basis of common random numbers.
+
+#include <vector>
+
+#include "sim/scenario/scenario.hpp"
+#include "sim/stats/count_law.hpp"
+
+namespace larder {
+
+class DemandModel {
+ public:
+  explicit DemandModel(const Scenario& scenario);
+
+  /// Mean demand of store-item on `day` (0 when the store is closed).
+  double mean(int store, int item, int day) const;
+  /// The law of the demand count of store-item on `day`.
+  CountLaw law(int store, int item, int day) const;
+  /// The law on an open day of `weekday` without events (the planner's prior in policies.md).
+  CountLaw weekday_law(int store, int item, int weekday) const;
+  /// The count for uniform `u` (0 on closed days). Fast when no event touches the day.
+  int sample(int store, int item, int day, double u) const;
+  /// Bytes held per store-item (precomputed weekday samplers).
+  std::size_t bytes_per_store_item() const;
+
+ private:
+  std::size_t index(int store, int item, int weekday) const;
+  CountLaw law_with_mean(int item, double mean) const;
+
+  const Scenario* scenario_;
+  std::vector<double> weekday_mean_;      ///< [store][item][weekday]
+  std::vector<CountSampler> samplers_;    ///< [store][item][weekday]
+  std::vector<unsigned char> plain_day_;  ///< [store][day]: 1 = open, no event multiplier
+  std::vector<unsigned char> open_day_;   ///< [store][day]
+  std::vector<double> event_factor_;      ///< [store][day]
+};
+
+}  // namespace larder

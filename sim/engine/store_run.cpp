@@ -1,0 +1,224 @@
+#include "sim/engine/store_run.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "sim/random/stream.hpp"
+#include "sim/stats/binomial.hpp"
+
+namespace larder {
+
+/// The state of one policy at this store.
+struct StoreRun::Lane {
+  Lane(const Policy& p, const StoreView& view, std::span<const int> life, int items, int lead)
+      : forecaster(p.forecast->make(view)),
+        censoring(p.censoring->make(view)),
+        rule(p.quantity->make(view)),
+        shelf(life),
+        pipeline(static_cast<size_t>(items * lead), 0),
+        observed(static_cast<size_t>(items)),
+        tally(static_cast<size_t>(items)),
+        predicted(static_cast<size_t>(items)),
+        forecast(static_cast<size_t>(items)),
+        estimates(static_cast<size_t>(items)),
+        inputs(static_cast<size_t>(items)),
+        orders(static_cast<size_t>(items)) {
+    for (const auto& a : p.adjustments) adjusters.push_back(a->make(view));
+  }
+
+  std::unique_ptr<Forecaster> forecaster;
+  std::unique_ptr<CensoringState> censoring;
+  std::unique_ptr<OrderRule> rule;
+  std::vector<std::unique_ptr<Adjuster>> adjusters;
+  Shelf shelf;
+  std::vector<std::int32_t> pipeline;  ///< [item * lead + arrival_day % lead]
+  std::vector<Observation> observed;   ///< today's observations
+  std::vector<Tally> tally;            ///< scored-day counts
+  // Scratch buffers, reused every day.
+  std::vector<DemandForecast> predicted;
+  std::vector<DemandForecast> forecast;
+  std::vector<double> estimates;
+  std::vector<OrderInput> inputs;
+  std::vector<int> orders;
+};
+
+StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
+    : setup_(setup),
+      view_{setup.scenario, setup.demand, store},
+      replication_(replication),
+      store_(store),
+      items_(static_cast<int>(setup.scenario.items.size())),
+      lead_time_(setup.scenario.logistics.lead_time_days) {
+  const Scenario& sc = setup.scenario;
+  const double fifo = sc.fifo_share;
+  for (int i = 0; i < items_; ++i) {
+    const Item& item = sc.items[static_cast<size_t>(i)];
+    shelf_life_.push_back(item.shelf_life_days);
+    const auto key = [&](Purpose p) {
+      return StreamKey{setup.seed, static_cast<std::uint32_t>(replication),
+                       static_cast<std::uint32_t>(store), static_cast<std::uint32_t>(i), p};
+    };
+    demand_streams_.push_back(make_stream(key(Purpose::demand)));
+    // A picking split is random only when units of different ages can be on the shelf and
+    // shoppers are mixed; otherwise it is deterministic and draws nothing.
+    if (item.shelf_life_days > 1 && fifo > 0.0 && fifo < 1.0) {
+      picking_index_.push_back(static_cast<int>(picking_streams_.size()));
+      picking_streams_.push_back(make_stream(key(Purpose::picking)));
+    } else {
+      picking_index_.push_back(-1);
+    }
+  }
+  for (int t = 0; t < sc.horizon.days; ++t) open_.push_back(sc.is_open(store, t) ? 1 : 0);
+  demand_.assign(static_cast<size_t>(items_), 0);
+  picking_u_.assign(static_cast<size_t>(items_), 0.0);
+  for (const Policy& p : setup.policies) {
+    lanes_.push_back(std::make_unique<Lane>(p, view_, shelf_life_, items_, lead_time_));
+  }
+}
+
+StoreRun::~StoreRun() = default;
+
+std::span<const Tally> StoreRun::tallies(int policy) const {
+  return lanes_[static_cast<size_t>(policy)]->tally;
+}
+
+std::size_t StoreRun::bytes_per_item_and_policy() const {
+  int life = 0;
+  for (int l : shelf_life_) life = std::max(life, l);
+  std::size_t b = sizeof(std::int32_t) * static_cast<size_t>(life + lead_time_) +
+                  sizeof(Observation) + sizeof(Tally) + sizeof(DemandForecast) * 2 +
+                  sizeof(double) + sizeof(OrderInput) + sizeof(int);
+  if (!lanes_.empty()) b += lanes_.front()->forecaster->bytes_per_item();
+  return b;
+}
+
+void StoreRun::run_days(int begin, int end) {
+  if (begin == 0) {
+    // The store opens with the policy's own orders for the first lead-time days, placed on
+    // the days before the horizon (no sales history yet, so forecasts use their prior).
+    for (auto& lane : lanes_) {
+      for (int d = -lead_time_; d < 0; ++d) place_orders(*lane, d, false);
+    }
+  }
+  for (int t = begin; t < end; ++t) run_day(t);
+}
+
+void StoreRun::run_day(int day) {
+  const Scenario& sc = setup_.scenario;
+  const bool open = open_[static_cast<size_t>(day)] != 0;
+  const bool scored = day >= sc.horizon.warmup_days;
+  // One draw per store-item-day and purpose, open or not, so day t's draws never depend on
+  // what happened before.
+  for (int i = 0; i < items_; ++i) {
+    const double u = to_unit(demand_streams_[static_cast<size_t>(i)]());
+    demand_[static_cast<size_t>(i)] = open ? setup_.demand.sample(store_, i, day, u) : 0;
+  }
+  for (int i = 0; i < items_; ++i) {
+    const int k = picking_index_[static_cast<size_t>(i)];
+    if (k >= 0)
+      picking_u_[static_cast<size_t>(i)] = to_unit(picking_streams_[static_cast<size_t>(k)]());
+  }
+  for (auto& lane : lanes_) run_lane(*lane, day, open, scored);
+}
+
+void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
+  const Scenario& sc = setup_.scenario;
+  const size_t slot = static_cast<size_t>(day % lead_time_);
+  for (int i = 0; i < items_; ++i) {
+    const size_t ii = static_cast<size_t>(i);
+    const Item& item = sc.items[ii];
+    Observation o;
+    // 1. Morning delivery.
+    std::int32_t& due = lane.pipeline[ii * static_cast<size_t>(lead_time_) + slot];
+    o.delivered = due;
+    due = 0;
+    lane.shelf.receive(i, o.delivered);
+    // 2-3. Demand and service.
+    const int stock = lane.shelf.total(i);
+    const int demand = demand_[ii];
+    if (open) {
+      const int sold = std::min(demand, stock);
+      int oldest = 0;
+      if (picking_index_[ii] >= 0) {
+        oldest = binomial_inverse(picking_u_[ii], sold, sc.fifo_share);
+      } else if (sc.fifo_share >= 1.0) {
+        oldest = sold;
+      }
+      lane.shelf.take(i, sold, oldest);
+      o.open = true;
+      o.sold = sold;
+    }
+    // 4. Close.
+    o.leftover = stock - o.sold;
+    o.sold_out = open && o.leftover == 0;
+    // 5. End of life.
+    const int leaving = lane.shelf.expire(i);
+    switch (item.leftovers) {
+      case Leftovers::salvage:
+        o.salvaged = leaving;
+        break;
+      case Leftovers::donate:
+        o.donated = leaving;
+        break;
+      default:
+        o.wasted = leaving;
+        break;
+    }
+    lane.shelf.age(i);
+    lane.observed[ii] = o;
+    if (scored) {
+      Tally& t = lane.tally[ii];
+      t.demand += demand;
+      t.sold += o.sold;
+      t.lost += demand - o.sold;
+      t.wasted += o.wasted;
+      t.salvaged += o.salvaged;
+      t.donated += o.donated;
+      t.delivered += o.delivered;
+      t.open_days += open;
+      t.in_stock_days += open && o.leftover > 0;
+      t.no_stockout_days += open && demand <= stock;
+      t.served_by_item += o.sold;
+    }
+  }
+  place_orders(lane, day, open);
+}
+
+void StoreRun::place_orders(Lane& lane, int day, bool open) {
+  const Scenario& sc = setup_.scenario;
+  if (open) {
+    if (lane.censoring->needs_forecast()) lane.forecaster->predict(day, lane.predicted);
+    lane.censoring->treat(day, lane.observed, lane.predicted, lane.estimates);
+    lane.forecaster->observe(day, lane.estimates);
+  }
+  const int arrival = day + lead_time_;
+  if (arrival >= sc.horizon.days) return;
+  // Nothing is ordered for a day the store is closed: it could not be sold that day.
+  if (open_[static_cast<size_t>(arrival)] == 0) return;
+  lane.forecaster->predict(arrival, lane.forecast);
+  const size_t lead = static_cast<size_t>(lead_time_);
+  for (int i = 0; i < items_; ++i) {
+    const size_t ii = static_cast<size_t>(i);
+    OrderInput& in = lane.inputs[ii];
+    in.forecast = lane.forecast[ii];
+    // Units that will still be sellable on the arrival day, and units already on their way.
+    in.usable_stock = lane.shelf.at_least(i, lead_time_ - 1);
+    int on_order = 0;
+    for (size_t k = 0; k < lead; ++k) on_order += lane.pipeline[ii * lead + k];
+    in.on_order = on_order;
+    in.sold_today = lane.observed[ii].sold;
+  }
+  const OrderContext ctx{view_, day, arrival};
+  lane.rule->decide(ctx, lane.inputs, lane.orders);
+  for (auto& a : lane.adjusters) a->adjust(ctx, lane.inputs, lane.observed, lane.orders);
+  const size_t slot = static_cast<size_t>(arrival % lead_time_);
+  for (int i = 0; i < items_; ++i) {
+    const size_t ii = static_cast<size_t>(i);
+    const int pack = sc.items[ii].pack_size;
+    int q = std::max(lane.orders[ii], 0);
+    if (pack > 1) q = (q + pack - 1) / pack * pack;  // round up to whole packs
+    lane.pipeline[ii * lead + slot] = q;
+  }
+}
+
+}  // namespace larder

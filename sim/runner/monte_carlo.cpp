@@ -1,0 +1,127 @@
+#include "sim/runner/monte_carlo.hpp"
+
+#include <tbb/global_control.h>
+#include <tbb/parallel_for.h>
+#include <tbb/task_arena.h>
+
+#include <algorithm>
+#include <chrono>
+#include <thread>
+
+#include "sim/engine/store_run.hpp"
+
+namespace larder {
+
+std::vector<Metric> applicable_metrics(const Scenario& scenario) {
+  bool weight = false;
+  bool co2e = false;
+  for (const Item& it : scenario.items) {
+    weight = weight || it.weight_kg.has_value();
+    co2e = co2e || it.co2e_kg.has_value();
+  }
+  std::vector<Metric> out;
+  for (size_t k = 0; k < kMetricCount; ++k) {
+    const Metric m = static_cast<Metric>(k);
+    // Substitution is not modelled yet: its metrics would only repeat sold and fill rate.
+    if (m == Metric::substitute_units || m == Metric::served_share) continue;
+    if (m == Metric::waste_kg && !weight) continue;
+    if (m == Metric::co2e_kg && !co2e) continue;
+    out.push_back(m);
+  }
+  return out;
+}
+
+namespace {
+
+/// Per-item tallies of every policy for one (replication, store) task.
+using StoreTallies = std::vector<std::vector<Tally>>;
+
+StoreTallies simulate_store(const SimSetup& setup, int replication, int store) {
+  StoreRun run(setup, replication, store);
+  run.run_days(0, setup.scenario.horizon.days);
+  StoreTallies out;
+  for (size_t p = 0; p < setup.policies.size(); ++p) {
+    const auto t = run.tallies(static_cast<int>(p));
+    out.emplace_back(t.begin(), t.end());
+  }
+  return out;
+}
+
+}  // namespace
+
+RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& policies,
+                       const RunOptions& options) {
+  const auto started = std::chrono::steady_clock::now();
+  const int reps = options.replications > 0 ? options.replications : scenario.replications;
+  const int stores = static_cast<int>(scenario.stores.size());
+  const int items = static_cast<int>(scenario.items.size());
+  const int threads = options.threads > 0
+                          ? options.threads
+                          : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+
+  RunResult result;
+  result.policies.reserve(policies.size());
+  for (const Policy& p : policies) result.policies.push_back(p.name);
+  result.baseline = scenario.baseline;
+  result.metrics = applicable_metrics(scenario);
+  result.values.resize(policies.size());
+  RunInfo& info = result.info;
+  info.scenario_name = scenario.name;
+  info.scenario_file = scenario.file;
+  info.seed = scenario.seed;
+  info.horizon_days = scenario.horizon.days;
+  info.warmup_days = scenario.horizon.warmup_days;
+  info.stores = stores;
+  info.items = items;
+  info.currency = scenario.currency;
+  info.version = LARDER_VERSION;
+  info.threads = threads;
+
+  const DemandModel demand(scenario);
+  const SimSetup setup{scenario, demand, policies, scenario.seed};
+
+  // Replications run in batches so memory stays bounded: each batch keeps the per-item tallies
+  // of its (replication, store) tasks until they are reduced in a fixed order.
+  const std::size_t per_task = policies.size() * static_cast<size_t>(items) * sizeof(Tally);
+  const std::size_t budget = std::size_t{256} << 20;
+  const int batch = static_cast<int>(std::clamp<std::size_t>(
+      budget / std::max<std::size_t>(per_task * static_cast<size_t>(stores), 1), 1,
+      static_cast<size_t>(std::max(threads * 4, 8))));
+
+  // Allow exactly `threads` workers, even beyond the core count (tests use that to show the
+  // results do not depend on scheduling).
+  const tbb::global_control allow(tbb::global_control::max_allowed_parallelism,
+                                  static_cast<size_t>(threads));
+  tbb::task_arena arena(threads);
+  int done = 0;
+  while (done < reps) {
+    if (options.stop != nullptr && options.stop->load()) break;
+    const int n = std::min(batch, reps - done);
+    std::vector<StoreTallies> slots(static_cast<size_t>(n * stores));
+    arena.execute([&] {
+      tbb::parallel_for(0, n * stores, [&](int task) {
+        const int rep = options.first_replication + done + task / stores;
+        slots[static_cast<size_t>(task)] = simulate_store(setup, rep, task % stores);
+      });
+    });
+    for (int r = 0; r < n; ++r) {
+      for (size_t p = 0; p < policies.size(); ++p) {
+        std::vector<Tally> per_item(static_cast<size_t>(items));
+        for (int s = 0; s < stores; ++s) {
+          const auto& t = slots[static_cast<size_t>(r * stores + s)][p];
+          for (int i = 0; i < items; ++i)
+            per_item[static_cast<size_t>(i)].add(t[static_cast<size_t>(i)]);
+        }
+        result.values[p].push_back(compute_metrics(per_item, scenario.items));
+      }
+    }
+    done += n;
+    if (options.progress) options.progress(done, reps);
+  }
+  result.info.replications = done;
+  result.info.seconds =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
+  return result;
+}
+
+}  // namespace larder

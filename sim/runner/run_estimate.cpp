@@ -1,0 +1,51 @@
+#include "sim/runner/run_estimate.hpp"
+
+#include <algorithm>
+#include <chrono>
+
+#include "sim/engine/demand_model.hpp"
+#include "sim/engine/store_run.hpp"
+
+namespace larder {
+
+RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& policies,
+                         int threads) {
+  RunEstimate e;
+  const DemandModel demand(scenario);
+  const int stores = static_cast<int>(scenario.stores.size());
+  const int items = static_cast<int>(scenario.items.size());
+  for (int s = 0; s < stores; ++s) {
+    for (int t = 0; t < scenario.horizon.days; ++t) {
+      if (!scenario.is_open(s, t)) continue;
+      e.open_store_item_days += items;
+      if (t >= scenario.horizon.warmup_days) e.scored_store_item_days += items;
+      for (int i = 0; i < items; ++i) {
+        const DemandSpec& d = scenario.items[static_cast<size_t>(i)].demand;
+        if (d.family != DemandFamily::negative_binomial || !d.cv) continue;
+        const double m = demand.mean(s, i, t);
+        if ((*d.cv * m) * (*d.cv * m) <= m) ++e.poisson_fallback_days;
+      }
+    }
+  }
+  // Pilot: one store, one replication, every policy, the whole horizon.
+  const SimSetup setup{scenario, demand, policies, scenario.seed};
+  const auto start = std::chrono::steady_clock::now();
+  StoreRun pilot(setup, 0, 0);
+  pilot.run_days(0, scenario.horizon.days);
+  const double per_store =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+  const double tasks = static_cast<double>(stores) * scenario.replications;
+  const int workers = std::max(1, threads);
+  e.seconds = per_store * tasks / std::min<double>(workers, tasks);
+
+  const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
+                               (pilot.bytes_per_item_and_policy() + sizeof(Tally));
+  const std::size_t model = static_cast<size_t>(stores * items) * demand.bytes_per_store_item();
+  const std::size_t results =
+      static_cast<size_t>(scenario.replications) * policies.size() * sizeof(MetricVector);
+  e.memory_bytes = model + per_task * static_cast<size_t>(workers) * 2 + results +
+                   (std::size_t{8} << 20);  // plus a fixed allowance for the program itself
+  return e;
+}
+
+}  // namespace larder

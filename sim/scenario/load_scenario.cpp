@@ -1,0 +1,950 @@
+#include "sim/scenario/load_scenario.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <charconv>
+#include <filesystem>
+#include <fstream>
+#include <limits>
+#include <map>
+#include <new>
+#include <random>
+#include <sstream>
+#include <system_error>
+#include <utility>
+
+#include "sim/scenario/duplicate_keys.hpp"
+#include "sim/scenario/generated_stores.hpp"
+#include "sim/scenario/ids.hpp"
+#include "sim/scenario/iso_date.hpp"
+#include "sim/scenario/params.hpp"
+#include "sim/scenario/weekdays.hpp"
+
+namespace larder {
+
+namespace {
+
+constexpr int kMaxReplications = 1000000;
+constexpr int kMaxGeneratedStores = 1000000;
+constexpr std::string_view kNotSupported = "is not supported yet by this version of larder";
+
+// ---------------------------------------------------------------------------------------------
+// Small helpers shared by the sections.
+
+/// Whether `key` is written in `p`'s mapping (even with an empty value); marks it as known.
+bool written(Params& p, std::string_view key) {
+  return p.raw(key).IsDefined();
+}
+
+/// Reports that a required key is missing (at the key when written empty, else at the mapping).
+void report_required(Params& p, std::string_view key, std::string hint = {}) {
+  p.diagnostics().error(p.key_location(key), fmt::format("{} is required", p.path_of(key)),
+                        std::move(hint));
+}
+
+/// Reports a key of the spec that this version does not implement (instead of "unknown key").
+void reject_unsupported(Params& p, std::string_view key, std::string hint) {
+  if (!written(p, key)) return;
+  p.diagnostics().error(p.key_location(key), fmt::format("{} {}", p.path_of(key), kNotSupported),
+                        std::move(hint));
+}
+
+/// "a, b, c".
+std::string join(const std::vector<std::string>& names) {
+  std::string out;
+  for (const auto& n : names) out += (out.empty() ? "" : ", ") + n;
+  return out;
+}
+
+/// The name in `names` closest to `word` when it is close enough to be a likely typo.
+std::string closest_name(const std::string& word, const std::vector<std::string>& names) {
+  std::string best;
+  int best_d = 3;
+  for (const auto& n : names) {
+    const int d = edit_distance(word, n);
+    if (d < best_d) best_d = d, best = n;
+  }
+  return best;
+}
+
+/// Reads a required id or name; reports it missing or malformed.
+std::optional<std::string> read_id(Params& p, std::string_view key) {
+  if (!p.has(key)) {
+    report_required(p, key);
+    return std::nullopt;
+  }
+  auto v = p.optional_text(key);
+  if (!v) return std::nullopt;
+  const std::string problem = id_problem(*v);
+  if (!problem.empty()) {
+    p.error(key, fmt::format("{} {}", p.path_of(key), problem));
+    return std::nullopt;
+  }
+  return v;
+}
+
+/// Where an id was first used, for the "already used" hint.
+struct FirstUse {
+  std::string owner;  ///< e.g. "stores[0]"
+  int line = 0;
+};
+using IdRegistry = std::map<std::string, FirstUse>;
+
+/// Records id `id` of `owner` (read from `key` of `p`); reports it when already taken.
+bool claim_id(IdRegistry& ids, const std::string& id, const std::string& owner, Params& p,
+              std::string_view key) {
+  const auto [it, inserted] = ids.emplace(id, FirstUse{owner, p.location(key).line});
+  if (inserted) return true;
+  p.error(key, fmt::format("{} '{}' is already used by {}", p.path_of(key), id, it->second.owner),
+          fmt::format("{}.{} is at line {}", it->second.owner, key, it->second.line));
+  return false;
+}
+
+/// Reads `attributes: { name: value, ... }` into `out` (existing entries are overwritten, so
+/// item_defaults' attributes merge key by key).
+void read_attributes(Params& p, std::map<std::string, std::string>& out) {
+  if (!p.has("attributes")) return;
+  const YAML::Node node = p.raw("attributes");
+  const std::string path = p.path_of("attributes");
+  Diagnostics& diag = p.diagnostics();
+  if (!node.IsMap()) {
+    diag.error(location_of(node, p.file()),
+               fmt::format("{} must be a mapping from name to value such as {{ type: bread }} "
+                           "(got {})",
+                           path, describe_value(node)));
+    return;
+  }
+  for (const auto& kv : node) {
+    if (!kv.first.IsScalar()) {
+      diag.error(location_of(kv.first, p.file()), fmt::format("{} must have names as keys (got {})",
+                                                              path, describe_value(kv.first)));
+      continue;
+    }
+    const std::string& name = kv.first.Scalar();
+    const std::string problem = id_problem(name);
+    if (!problem.empty()) {
+      diag.error(location_of(kv.first, p.file()),
+                 fmt::format("attribute name in {} {}", path, problem));
+      continue;
+    }
+    if (!kv.second.IsScalar() || kv.second.Scalar().empty()) {
+      diag.error(location_of(kv.second, p.file()),
+                 fmt::format("{}.{} must be a single non-empty value (got {})", path, name,
+                             describe_value(kv.second)));
+      continue;
+    }
+    out.insert_or_assign(name, kv.second.Scalar());
+  }
+}
+
+/// Reads a policy part: a mapping naming its method under `name_key` (or, when `scalar_ok`,
+/// just the method name). The part's other keys are validated by the part itself later.
+std::optional<PartSpec> read_part(const YAML::Node& node, const std::string& path,
+                                  const char* name_key, bool scalar_ok, const std::string& file,
+                                  Diagnostics& diag) {
+  const Location where = location_of(node, file);
+  if (node.IsScalar() && scalar_ok) {
+    if (node.Scalar().empty()) {
+      diag.error(where, fmt::format("{} must name a {}", path, name_key));
+      return std::nullopt;
+    }
+    return PartSpec{node.Scalar(), node, where, path};
+  }
+  if (!node.IsMap()) {
+    diag.error(where,
+               fmt::format("{} must be {}a mapping with a {} (got {})", path,
+                           scalar_ok ? fmt::format("a {} name or ", name_key) : "", name_key,
+                           describe_value(node)),
+               node.IsScalar() ? fmt::format("write {{ {}: {} }}", name_key, node.Scalar())
+                               : std::string{});
+    return std::nullopt;
+  }
+  const YAML::Node name = node[name_key];
+  if (!name.IsDefined() || name.IsNull()) {
+    diag.error(where, fmt::format("{}.{} is required", path, name_key));
+    return std::nullopt;
+  }
+  if (!name.IsScalar() || name.Scalar().empty()) {
+    diag.error(location_of(name, file),
+               fmt::format("{}.{} must be a name (got {})", path, name_key, describe_value(name)));
+    return std::nullopt;
+  }
+  return PartSpec{name.Scalar(), node, where, path};
+}
+
+// ---------------------------------------------------------------------------------------------
+// Items are read in two steps: every written field of item_defaults and of each item is
+// validated where it is written, then the two are merged key by key (the item's keys win) and
+// the rules that need the merged item (required keys, spread parameters, salvage) are checked.
+
+/// One field as written: `given` even when its value was rejected (so that it is not reported
+/// again as missing, nor replaced by the default).
+template <class T>
+struct Field {
+  bool given = false;
+  std::optional<T> value;
+  Location where;  ///< of the value
+};
+
+template <class T>
+const Field<T>& pick(const Field<T>& item, const Field<T>& defaults) {
+  return item.given ? item : defaults;
+}
+
+struct DemandDraft {
+  bool given = false;
+  bool broken = false;  ///< written but not a mapping: its fields are unknown
+  Location where;
+  Field<double> base;
+  Field<WeekdayValues> weekday;
+  Field<DemandFamily> family;
+  Field<double> cv;
+  Field<double> dispersion;
+};
+
+struct ItemDraft {
+  Field<double> price, unit_cost, salvage_value, disposal_cost, stockout_penalty, weight_kg,
+      co2e_kg;
+  Field<int> shelf_life_days, pack_size;
+  Field<Leftovers> leftovers;
+  std::map<std::string, std::string> attributes;
+  DemandDraft demand;
+};
+
+Field<double> number_field(Params& p, std::string_view key, Range range) {
+  Field<double> f;
+  f.given = p.has(key);
+  if (f.given) {
+    f.where = p.location(key);
+    f.value = p.optional_number(key, range);
+  }
+  return f;
+}
+
+Field<int> integer_field(Params& p, std::string_view key, Range range) {
+  Field<int> f;
+  f.given = p.has(key);
+  if (f.given) {
+    f.where = p.location(key);
+    f.value = p.optional_integer(key, range);
+  }
+  return f;
+}
+
+void read_demand_fields(Params& p, DemandDraft& d) {
+  d.base = number_field(p, "base", Range::at_least(0));
+  if (p.has("weekday")) {
+    d.weekday.given = true;
+    d.weekday.where = p.location("weekday");
+    d.weekday.value = read_weekday_values(p.raw("weekday"), p.path_of("weekday"),
+                                          Range::at_least(0), p.file(), p.diagnostics());
+  }
+  if (p.has("distribution")) {
+    d.family.given = true;
+    d.family.where = p.location("distribution");
+    const std::string f = p.choice("distribution", "", {"poisson", "negative_binomial", "normal"});
+    if (f == "poisson") d.family.value = DemandFamily::poisson;
+    if (f == "negative_binomial") d.family.value = DemandFamily::negative_binomial;
+    if (f == "normal") d.family.value = DemandFamily::normal;
+  }
+  d.cv = number_field(p, "cv", Range::above(0));
+  d.dispersion = number_field(p, "dispersion", Range::above(0));
+  reject_unsupported(p, "intraday",
+                     "intraday demand profiles come in a later version; remove the key");
+}
+
+/// Reads every item key but `id` that is written in `p` (an item or item_defaults).
+void read_item_fields(Params& p, ItemDraft& d) {
+  d.price = number_field(p, "price", Range::at_least(0));
+  d.unit_cost = number_field(p, "unit_cost", Range::at_least(0));
+  d.shelf_life_days = integer_field(p, "shelf_life_days", Range::at_least(1));
+  d.pack_size = integer_field(p, "pack_size", Range::at_least(1));
+  if (p.has("leftovers")) {
+    d.leftovers.given = true;
+    d.leftovers.where = p.location("leftovers");
+    const std::string l =
+        p.choice("leftovers", "", {"discard", "salvage", "donate", "discount_next_day"});
+    if (l == "discard") d.leftovers.value = Leftovers::discard;
+    if (l == "salvage") d.leftovers.value = Leftovers::salvage;
+    if (l == "donate") d.leftovers.value = Leftovers::donate;
+    if (l == "discount_next_day") {
+      p.error("leftovers",
+              fmt::format("{}: discount_next_day {}", p.path_of("leftovers"), kNotSupported),
+              "use discard, salvage or donate");
+    }
+  }
+  d.salvage_value = number_field(p, "salvage_value", Range::at_least(0));
+  d.disposal_cost = number_field(p, "disposal_cost", Range::at_least(0));
+  d.stockout_penalty = number_field(p, "stockout_penalty", Range::at_least(0));
+  d.weight_kg = number_field(p, "weight_kg", Range::at_least(0));
+  d.co2e_kg = number_field(p, "co2e_kg", Range::at_least(0));
+  read_attributes(p, d.attributes);
+  if (p.has("demand")) {
+    d.demand.given = true;
+    d.demand.where = p.location("demand");
+    if (auto dp = p.mapping("demand")) {
+      read_demand_fields(*dp, d.demand);
+      dp->finish();
+    } else {
+      d.demand.broken = true;
+    }
+  }
+  reject_unsupported(p, "substitutes",
+                     "substitution between items comes in a later version; remove the key");
+}
+
+/// Merges an item with item_defaults and checks the rules of the whole item. Problems go to
+/// `p`'s diagnostics; the returned item is complete only when none were found.
+Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
+  Item item;
+  item.attributes = it.attributes;  // already merged over the defaults' attributes
+  const auto required_number = [&](const Field<double>& a, const Field<double>& b,
+                                   std::string_view key) {
+    const Field<double>& f = pick(a, b);
+    if (!f.given) report_required(p, key);
+    return f.value;
+  };
+  const auto price = required_number(it.price, def.price, "price");
+  const auto unit_cost = required_number(it.unit_cost, def.unit_cost, "unit_cost");
+  item.price = price.value_or(0.0);
+  item.unit_cost = unit_cost.value_or(0.0);
+  item.shelf_life_days = pick(it.shelf_life_days, def.shelf_life_days).value.value_or(1);
+  item.pack_size = pick(it.pack_size, def.pack_size).value.value_or(1);
+  const Field<Leftovers>& leftovers = pick(it.leftovers, def.leftovers);
+  item.leftovers = leftovers.value.value_or(Leftovers::discard);
+  const Field<double>& salvage = pick(it.salvage_value, def.salvage_value);
+  item.salvage_value = salvage.value.value_or(0.0);
+  item.disposal_cost = pick(it.disposal_cost, def.disposal_cost).value.value_or(0.0);
+  item.stockout_penalty = pick(it.stockout_penalty, def.stockout_penalty).value.value_or(0.0);
+  item.weight_kg = pick(it.weight_kg, def.weight_kg).value;
+  item.co2e_kg = pick(it.co2e_kg, def.co2e_kg).value;
+
+  if (leftovers.value == Leftovers::salvage && unit_cost && (!salvage.given || salvage.value) &&
+      item.salvage_value >= item.unit_cost) {
+    p.diagnostics().error(salvage.given ? salvage.where : leftovers.where,
+                          fmt::format("{} ({}) must be less than {} ({}) when leftovers is salvage",
+                                      p.path_of("salvage_value"), item.salvage_value,
+                                      p.path_of("unit_cost"), item.unit_cost),
+                          "otherwise every extra unit ordered would pay");
+  }
+
+  // Demand: merged key by key; nothing more can be said when either side is not a mapping.
+  if (!it.demand.given && !def.demand.given) {
+    report_required(p, "demand", "e.g. demand: { base: 20 }");
+    return item;
+  }
+  if (it.demand.broken || def.demand.broken) return item;
+  const std::string demand_path = p.path_of("demand");
+  const Location demand_where = it.demand.given ? it.demand.where : p.location();
+  const Field<double>& base = pick(it.demand.base, def.demand.base);
+  if (!base.given) {
+    p.diagnostics().error(demand_where, fmt::format("{}.base is required", demand_path),
+                          "base is the mean demand per open day at a size-1 store");
+  }
+  item.demand.base = base.value.value_or(0.0);
+  if (const auto& w = pick(it.demand.weekday, def.demand.weekday); w.value) {
+    item.demand.weekday = *w.value;
+  }
+  const Field<DemandFamily>& family = pick(it.demand.family, def.demand.family);
+  if (family.given && !family.value) return item;  // already reported
+  item.demand.family = family.value.value_or(DemandFamily::poisson);
+  const Field<double>& cv = pick(it.demand.cv, def.demand.cv);
+  const Field<double>& dispersion = pick(it.demand.dispersion, def.demand.dispersion);
+  item.demand.cv = cv.value;
+  item.demand.dispersion = dispersion.value;
+  const char* family_name = to_string(item.demand.family);
+  if (item.demand.family == DemandFamily::poisson) {
+    for (const auto& [f, key] : {std::pair{&cv, "cv"}, std::pair{&dispersion, "dispersion"}}) {
+      if (!f->given) continue;
+      p.diagnostics().error(
+          f->where,
+          fmt::format("{}.{} is given but poisson has no spread parameter", demand_path, key),
+          fmt::format("remove {}, or set distribution: negative_binomial or normal", key));
+    }
+  } else if (!cv.given && !dispersion.given) {
+    p.diagnostics().error(
+        family.given ? family.where : demand_where,
+        fmt::format("{}.distribution {} needs cv or dispersion", demand_path, family_name),
+        "add cv (variance = (cv * mean)^2) or dispersion (variance = mean + mean^2 / dispersion)");
+  } else if (cv.given && dispersion.given) {
+    const bool cv_from_defaults = !it.demand.cv.given;
+    const bool dispersion_from_defaults = !it.demand.dispersion.given;
+    std::string hint = "remove one of them";
+    if (cv_from_defaults != dispersion_from_defaults) {
+      hint = fmt::format("{} comes from item_defaults (line {}); remove one of them",
+                         cv_from_defaults ? "cv" : "dispersion",
+                         (cv_from_defaults ? cv : dispersion).where.line);
+    }
+    p.diagnostics().error(dispersion_from_defaults ? cv.where : dispersion.where,
+                          fmt::format("{} gives both cv and dispersion; {} takes exactly one",
+                                      demand_path, family_name),
+                          std::move(hint));
+  }
+  return item;
+}
+
+// ---------------------------------------------------------------------------------------------
+
+/// Reads one scenario document into a Scenario, section by section, reporting every problem.
+class ScenarioReader {
+ public:
+  ScenarioReader(const std::string& file, Diagnostics& diag) : file_(file), diag_(diag) {}
+
+  Scenario read(const YAML::Node& root) {
+    scenario_.file = file_;
+    Params top(root, "", file_, diag_);
+    read_format(top);
+    if (auto name = read_id(top, "name")) scenario_.name = *name;
+    read_seed(top);
+    read_horizon(top);
+    scenario_.replications =
+        top.integer("replications", scenario_.replications, Range::between(1, kMaxReplications));
+    read_calendar(top);
+    scenario_.currency = top.text("currency", scenario_.currency);
+    read_stores(top);
+    check_event_stores();
+    read_items(top);
+    read_customers(top);
+    read_logistics(top);
+    reject_unsupported(top, "demand_shocks",
+                       "store traffic and persistence shocks come in a later version; remove the "
+                       "key");
+    read_policies(top);
+    read_baseline(top);
+    top.finish();
+    return scenario_;
+  }
+
+ private:
+  void error(const YAML::Node& node, std::string message, std::string hint = {}) {
+    diag_.error(location_of(node, file_), std::move(message), std::move(hint));
+  }
+
+  void read_format(Params& top) {
+    if (!top.has("format")) {
+      report_required(top, "format", "add `format: 1` at the top of the file");
+      return;
+    }
+    if (const auto f = top.optional_integer("format"); f && *f != 1) {
+      top.error("format", fmt::format("format must be 1 (got {})", *f),
+                "this version of larder reads format 1");
+    }
+  }
+
+  void read_seed(Params& top) {
+    const YAML::Node n = top.raw("seed");
+    if (n.IsDefined() && !n.IsNull()) {
+      std::uint64_t v = 0;
+      const std::string t = n.IsScalar() ? n.Scalar() : std::string{};
+      const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
+      const bool digits_only = !t.empty() && std::all_of(t.begin(), t.end(), [](char c) {
+        return c >= '0' && c <= '9';
+      });
+      if (!digits_only || ec != std::errc{} || end != t.data() + t.size()) {
+        error(n, fmt::format("seed must be a whole number in [0, {}] (got {})",
+                             std::numeric_limits<std::uint64_t>::max(), describe_value(n)));
+      }
+      scenario_.seed = v;
+      scenario_.seed_given = true;
+      return;
+    }
+    std::random_device device;
+    scenario_.seed = std::uint64_t{device()} << 32 | device();
+    scenario_.seed_given = false;
+  }
+
+  void read_horizon(Params& top) {
+    Horizon& h = scenario_.horizon;
+    auto hp = top.mapping("horizon");
+    if (!hp) return;
+    if (hp->has("days")) {
+      const auto days = hp->optional_integer("days", Range::at_least(1));
+      days_ok_ = days.has_value();
+      h.days = days.value_or(h.days);
+    }
+    if (hp->has("warmup_days")) {
+      const Range range = days_ok_ ? Range::between(0, h.days - 1) : Range::at_least(0);
+      h.warmup_days = hp->optional_integer("warmup_days", range).value_or(h.warmup_days);
+    } else if (days_ok_ && h.warmup_days > h.days - 1) {
+      hp->error("days",
+                fmt::format("horizon.warmup_days defaults to {}, which needs horizon.days >= {} "
+                            "(got {})",
+                            h.warmup_days, h.warmup_days + 1, h.days),
+                "set horizon.warmup_days below horizon.days");
+    }
+    const bool has_weekday = hp->has("start_weekday");
+    const bool has_date = hp->has("start_date");
+    if (has_weekday && has_date) {
+      hp->error("start_date", "horizon.start_weekday and horizon.start_date are both given",
+                "start_date sets the weekday: give only one of them");
+    }
+    if (has_weekday) {
+      if (const auto wd = hp->optional_text("start_weekday")) {
+        if (const auto d = weekday_index(*wd)) {
+          h.start_weekday = *d;
+        } else {
+          hp->error("start_weekday",
+                    fmt::format("horizon.start_weekday must be a weekday name (got {})", *wd),
+                    weekday_hint(*wd));
+        }
+      }
+    }
+    if (has_date) {
+      if (const auto text = hp->optional_text("start_date")) {
+        const auto date = parse_iso_date(*text);
+        if (!date) {
+          hp->error(
+              "start_date",
+              fmt::format("horizon.start_date must be an ISO date YYYY-MM-DD (got {})", *text));
+        } else if (!is_real_date(*date)) {
+          hp->error(
+              "start_date",
+              fmt::format("horizon.start_date is not a date in the calendar (got {})", *text));
+        } else {
+          h.start_date = to_iso(*date);
+          h.start_weekday = weekday_of_date(*date);
+        }
+      }
+    }
+    hp->finish();
+  }
+
+  void read_calendar(Params& top) {
+    auto cp = top.mapping("calendar");
+    if (!cp) return;
+    Calendar& cal = scenario_.calendar;
+    if (cp->has("open_weekdays")) {
+      const auto set =
+          read_weekday_set(cp->raw("open_weekdays"), cp->path_of("open_weekdays"), file_, diag_);
+      if (set) cal.open_weekdays = *set;
+    }
+    if (auto hours = cp->mapping("hours")) {
+      const bool open_given = hours->has("open");
+      const bool close_given = hours->has("close");
+      const auto open = hours->optional_integer("open", Range::between(0, 24));
+      const auto close = hours->optional_integer("close", Range::between(0, 24));
+      if ((open || !open_given) && (close || !close_given)) {
+        cal.open_hour = open.value_or(cal.open_hour);
+        cal.close_hour = close.value_or(cal.close_hour);
+        if (cal.open_hour >= cal.close_hour) {
+          hours->error(close_given ? "close" : "open",
+                       fmt::format("calendar.hours.open ({}) must be before calendar.hours.close "
+                                   "({})",
+                                   cal.open_hour, cal.close_hour));
+        }
+      }
+      hours->finish();
+    }
+    read_events(*cp);
+    cp->finish();
+  }
+
+  void read_events(Params& cp) {
+    const YAML::Node events = cp.raw("events");
+    if (!events.IsDefined() || events.IsNull()) return;
+    if (!events.IsSequence()) {
+      error(events, fmt::format("calendar.events must be a list of events such as "
+                                "[{{ day: 120, demand: 1.6 }}] (got {})",
+                                describe_value(events)));
+      return;
+    }
+    const int days = scenario_.horizon.days;
+    for (size_t i = 0; i < events.size(); ++i) {
+      const YAML::Node node = events[i];
+      const std::string path = fmt::format("calendar.events[{}]", i);
+      if (!node.IsMap()) {
+        error(node, fmt::format("{} must be a mapping such as {{ day: 120, demand: 1.6 }} (got {})",
+                                path, describe_value(node)));
+        continue;
+      }
+      Params ep(node, path, file_, diag_);
+      CalendarEvent e;
+      if (!ep.has("day")) {
+        report_required(ep, "day", "day is the day index from the start of the horizon");
+      } else {
+        const Range range = days_ok_ ? Range::between(0, days - 1) : Range::at_least(0);
+        e.day = ep.optional_integer("day", range).value_or(0);
+      }
+      e.demand = ep.number("demand", 1.0, Range::at_least(0));
+      e.closed = ep.boolean("closed", false);
+      if (ep.has("stores")) {
+        const YAML::Node stores = ep.raw("stores");
+        const std::string stores_path = ep.path_of("stores");
+        if (!stores.IsSequence()) {
+          error(stores, fmt::format("{} must be a list of store ids (got {})", stores_path,
+                                    describe_value(stores)));
+        } else if (stores.size() == 0) {
+          error(stores, fmt::format("{} must list at least one store id", stores_path),
+                "leave stores out to apply the event to every store");
+        }
+        for (size_t j = 0; stores.IsSequence() && j < stores.size(); ++j) {
+          const YAML::Node s = stores[j];
+          const std::string s_path = fmt::format("{}[{}]", stores_path, j);
+          if (!s.IsScalar()) {
+            error(s, fmt::format("{} must be a store id (got {})", s_path, describe_value(s)));
+            continue;
+          }
+          e.stores.push_back(s.Scalar());
+          event_store_refs_.push_back({s.Scalar(), location_of(s, file_), s_path});
+        }
+      }
+      ep.finish();
+      scenario_.calendar.events.push_back(std::move(e));
+    }
+  }
+
+  void read_stores(Params& top) {
+    const YAML::Node n = top.raw("stores");
+    if (!n.IsDefined() || n.IsNull()) {
+      report_required(top, "stores",
+                      "list them, e.g. stores: [{ id: quay }], or generate them: "
+                      "stores: { count: 10 }");
+    } else if (n.IsSequence()) {
+      read_store_list(n);
+    } else if (n.IsMap()) {
+      read_generated_stores(n);
+    } else {
+      error(n, fmt::format("stores must be a list of stores or a mapping such as "
+                           "{{ count: 40, size: {{ lognormal_cv: 0.3 }} }} (got {})",
+                           describe_value(n)));
+    }
+  }
+
+  void read_store_list(const YAML::Node& list) {
+    if (list.size() == 0) {
+      error(list, "stores must list at least one store");
+      return;
+    }
+    IdRegistry ids;
+    for (size_t i = 0; i < list.size(); ++i) {
+      const YAML::Node node = list[i];
+      const std::string path = fmt::format("stores[{}]", i);
+      if (!node.IsMap()) {
+        error(node, fmt::format("{} must be a mapping such as {{ id: quay, size: 1.3 }} (got {})",
+                                path, describe_value(node)));
+        continue;
+      }
+      Params sp(node, path, file_, diag_);
+      Store store;
+      store.open_weekdays = scenario_.calendar.open_weekdays;
+      if (const auto id = read_id(sp, "id")) {
+        claim_id(ids, *id, path, sp, "id");
+        store.id = *id;
+      }
+      store.size = sp.number("size", store.size, Range::above(0));
+      if (sp.has("open_weekdays")) {
+        const auto set =
+            read_weekday_set(sp.raw("open_weekdays"), sp.path_of("open_weekdays"), file_, diag_);
+        if (set) store.open_weekdays = *set;
+      }
+      read_attributes(sp, store.attributes);
+      sp.finish();
+      scenario_.stores.push_back(std::move(store));
+    }
+  }
+
+  void read_generated_stores(const YAML::Node& node) {
+    Params gp(node, "stores", file_, diag_);
+    std::optional<int> count;
+    if (!gp.has("count")) {
+      report_required(gp, "count", "generated stores need a count, e.g. stores: { count: 40 }");
+    } else {
+      count = gp.optional_integer("count", Range::between(1, kMaxGeneratedStores));
+    }
+    double cv = 0.0;
+    if (auto size = gp.mapping("size")) {
+      cv = size->number("lognormal_cv", 0.0, Range::at_least(0));
+      size->finish();
+    }
+    gp.finish();
+    if (!count) return;
+    const std::vector<double> sizes = generated_store_sizes(scenario_.seed, *count, cv);
+    for (int i = 0; i < *count; ++i) {
+      Store store;
+      store.id = generated_store_id(i, *count);
+      store.size = sizes[static_cast<size_t>(i)];
+      store.open_weekdays = scenario_.calendar.open_weekdays;
+      scenario_.stores.push_back(std::move(store));
+    }
+  }
+
+  void check_event_stores() {
+    std::vector<std::string> ids;
+    for (const auto& s : scenario_.stores) ids.push_back(s.id);
+    for (const auto& ref : event_store_refs_) {
+      if (std::find(ids.begin(), ids.end(), ref.id) != ids.end()) continue;
+      const std::string near = closest_name(ref.id, ids);
+      std::string hint;
+      if (!near.empty()) {
+        hint = fmt::format("did you mean '{}'?", near);
+      } else if (ids.size() <= 10) {
+        hint = fmt::format("the stores are {}", join(ids));
+      }
+      diag_.error(ref.where, fmt::format("{} '{}' is not a store id", ref.path, ref.id), hint);
+    }
+  }
+
+  void read_items(Params& top) {
+    ItemDraft defaults;
+    if (auto dp = top.mapping("item_defaults")) {
+      if (written(*dp, "id")) {
+        diag_.error(dp->key_location("id"), "item_defaults cannot set id",
+                    "every item gives its own id");
+      }
+      read_item_fields(*dp, defaults);
+      dp->finish();
+    }
+    const YAML::Node list = top.raw("items");
+    if (!list.IsDefined() || list.IsNull()) {
+      report_required(top, "items",
+                      "e.g. items: [{ id: bread, price: 2, unit_cost: 0.8, "
+                      "demand: { base: 20 } }]");
+      return;
+    }
+    if (!list.IsSequence()) {
+      error(list, fmt::format("items must be a list of items (got {})", describe_value(list)));
+      return;
+    }
+    if (list.size() == 0) {
+      error(list, "items must list at least one item");
+      return;
+    }
+    IdRegistry ids;
+    for (size_t i = 0; i < list.size(); ++i) {
+      const YAML::Node node = list[i];
+      const std::string path = fmt::format("items[{}]", i);
+      if (!node.IsMap()) {
+        error(node, fmt::format("{} must be a mapping such as {{ id: bread, price: 2, ... }} "
+                                "(got {})",
+                                path, describe_value(node)));
+        continue;
+      }
+      Params ip(node, path, file_, diag_);
+      const auto id = read_id(ip, "id");
+      if (id) claim_id(ids, *id, path, ip, "id");
+      ItemDraft draft;
+      draft.attributes = defaults.attributes;
+      read_item_fields(ip, draft);
+      ip.finish();
+      Item item = build_item(draft, defaults, ip);
+      item.id = id.value_or("");
+      scenario_.items.push_back(std::move(item));
+    }
+  }
+
+  void read_customers(Params& top) {
+    auto cp = top.mapping("customers");
+    if (!cp) return;
+    scenario_.fifo_share = cp->number("fifo_share", scenario_.fifo_share, Range::probability());
+    reject_unsupported(*cp, "discount_take_rate",
+                       "discounted units come in a later version; remove the key");
+    reject_unsupported(*cp, "goodwill", "goodwill comes in a later version; remove the key");
+    cp->finish();
+  }
+
+  void read_logistics(Params& top) {
+    auto lp = top.mapping("logistics");
+    if (!lp) return;
+    Logistics& l = scenario_.logistics;
+    l.lead_time_days = lp->integer("lead_time_days", l.lead_time_days, Range::at_least(1));
+    if (lp->has("delivery_weekdays")) {
+      const auto set = read_weekday_set(lp->raw("delivery_weekdays"),
+                                        lp->path_of("delivery_weekdays"), file_, diag_);
+      if (set && *set != kAllWeekdays) {
+        diag_.error(lp->key_location("delivery_weekdays"),
+                    fmt::format("logistics.delivery_weekdays {}", kNotSupported),
+                    "this version delivers every day: list all seven days or leave the key out");
+      }
+    }
+    lp->finish();
+  }
+
+  void read_policies(Params& top) {
+    const YAML::Node list = top.raw("policies");
+    if (!list.IsDefined() || list.IsNull()) {
+      report_required(top, "policies",
+                      "e.g. policies: [{ name: current, forecast: { method: ses_weekday }, "
+                      "quantity: { rule: in_stock_target, level: 0.7 } }]");
+      return;
+    }
+    if (!list.IsSequence()) {
+      error(list,
+            fmt::format("policies must be a list of policies (got {})", describe_value(list)));
+      return;
+    }
+    if (list.size() == 0) {
+      error(list, "policies must list at least one policy");
+      return;
+    }
+    IdRegistry names;
+    for (size_t i = 0; i < list.size(); ++i) {
+      const YAML::Node node = list[i];
+      const std::string path = fmt::format("policies[{}]", i);
+      if (!node.IsMap()) {
+        error(node, fmt::format("{} must be a mapping with a name, a forecast and a quantity "
+                                "(got {})",
+                                path, describe_value(node)));
+        continue;
+      }
+      Params pp(node, path, file_, diag_);
+      const auto name = read_id(pp, "name");
+      if (name) claim_id(names, *name, path, pp, "name");
+      const auto forecast = read_required_part(pp, "forecast", "method", "ses_weekday");
+      std::optional<PartSpec> censoring;
+      if (pp.has("censoring")) {
+        censoring =
+            read_part(pp.raw("censoring"), pp.path_of("censoring"), "method", true, file_, diag_);
+      } else {
+        censoring =
+            PartSpec{"ignore", YAML::Node(), location_of(node, file_), pp.path_of("censoring")};
+      }
+      const auto quantity = read_required_part(pp, "quantity", "rule", "in_stock_target");
+      std::vector<PartSpec> adjustments;
+      if (pp.has("adjustments")) {
+        const YAML::Node adj = pp.raw("adjustments");
+        if (!adj.IsSequence()) {
+          error(adj, fmt::format("{} must be a list such as [pack_round] (got {})",
+                                 pp.path_of("adjustments"), describe_value(adj)));
+        }
+        for (size_t j = 0; adj.IsSequence() && j < adj.size(); ++j) {
+          auto part = read_part(adj[j], fmt::format("{}[{}]", pp.path_of("adjustments"), j),
+                                "method", true, file_, diag_);
+          if (part) adjustments.push_back(std::move(*part));
+        }
+      }
+      pp.finish();
+      // Built once: assigning over an existing YAML::Node would rewrite the node it refers to.
+      scenario_.policies.push_back(
+          PolicySpec{name.value_or(""), location_of(node, file_), forecast.value_or(PartSpec{}),
+                     censoring.value_or(PartSpec{}), quantity.value_or(PartSpec{}), adjustments});
+    }
+  }
+
+  std::optional<PartSpec> read_required_part(Params& pp, std::string_view key, const char* name_key,
+                                             const char* example) {
+    if (!pp.has(key)) {
+      report_required(pp, key, fmt::format("e.g. {}: {{ {}: {} }}", key, name_key, example));
+      return std::nullopt;
+    }
+    return read_part(pp.raw(key), pp.path_of(key), name_key, false, file_, diag_);
+  }
+
+  void read_baseline(Params& top) {
+    const auto baseline = top.optional_text("baseline");
+    if (!baseline || scenario_.policies.empty()) return;
+    std::vector<std::string> names;
+    for (const auto& p : scenario_.policies) names.push_back(p.name);
+    const auto it = std::find(names.begin(), names.end(), *baseline);
+    if (it != names.end()) {
+      scenario_.baseline = static_cast<int>(it - names.begin());
+      return;
+    }
+    const std::string near = closest_name(*baseline, names);
+    top.error("baseline",
+              fmt::format("baseline '{}' is not one of the policies ({})", *baseline, join(names)),
+              near.empty() ? std::string{} : fmt::format("did you mean '{}'?", near));
+  }
+
+  struct EventStoreRef {
+    std::string id;
+    Location where;
+    std::string path;
+  };
+
+  const std::string& file_;
+  Diagnostics& diag_;
+  Scenario scenario_;
+  bool days_ok_ = true;  ///< horizon.days is valid, so day ranges can be checked against it
+  std::vector<EventStoreRef> event_store_refs_;
+};
+
+std::optional<Scenario> parse_document(const std::string& text, const std::string& file,
+                                       Diagnostics& diag) {
+  std::vector<YAML::Node> docs;
+  try {
+    docs = YAML::LoadAll(text);
+  } catch (const YAML::ParserException& e) {
+    const Location where =
+        e.mark.line < 0 ? Location{file, 0, 0} : Location{file, e.mark.line + 1, e.mark.column + 1};
+    diag.error(where, fmt::format("invalid YAML: {}", e.msg));
+    return std::nullopt;
+  }
+  if (docs.empty() || docs[0].IsNull()) {
+    diag.error({file, 0, 0}, "the scenario is empty", "a scenario starts with `format: 1`");
+    return std::nullopt;
+  }
+  if (docs.size() > 1) {
+    diag.error(location_of(docs[1], file),
+               fmt::format("a scenario file holds one YAML document (found {})", docs.size()),
+               "remove the `---` separator");
+    return std::nullopt;
+  }
+  const YAML::Node& root = docs[0];
+  if (!root.IsMap()) {
+    diag.error(location_of(root, file),
+               fmt::format("a scenario must be a mapping of keys to values such as `format: 1` "
+                           "(got {})",
+                           describe_value(root)));
+    return std::nullopt;
+  }
+  report_duplicate_keys(root, file, diag);
+  return ScenarioReader(file, diag).read(root);
+}
+
+}  // namespace
+
+std::optional<Scenario> parse_scenario(const std::string& yaml_text, const std::string& file_label,
+                                       Diagnostics& diag) {
+  Diagnostics found;
+  std::optional<Scenario> scenario;
+  try {
+    scenario = parse_document(yaml_text, file_label, found);
+  } catch (const std::bad_alloc&) {
+    throw;
+  } catch (const std::exception& e) {
+    // Not expected: every problem should have its own message. Reported rather than thrown.
+    found.error({file_label, 0, 0}, fmt::format("could not read the scenario: {}", e.what()));
+  }
+  // Report in file order (problems without a line first), each once.
+  std::vector<Diagnostic> items = found.items();
+  std::stable_sort(items.begin(), items.end(), [](const Diagnostic& a, const Diagnostic& b) {
+    return std::pair{a.where.line, a.where.column} < std::pair{b.where.line, b.where.column};
+  });
+  for (size_t i = 0; i < items.size(); ++i) {
+    const bool repeat = i > 0 && items[i].where.line == items[i - 1].where.line &&
+                        items[i].where.column == items[i - 1].where.column &&
+                        items[i].message == items[i - 1].message;
+    if (!repeat) diag.error(items[i].where, items[i].message, items[i].hint);
+  }
+  if (!diag.ok()) return std::nullopt;
+  return scenario;
+}
+
+Scenario load_scenario_file(const std::string& path) {
+  Diagnostics diag;
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) {
+    diag.error({path, 0, 0}, "cannot read the scenario: it is a directory");
+    throw InputError(std::move(diag));
+  }
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    const int err = errno;
+    diag.error({path, 0, 0},
+               fmt::format("cannot read the scenario: {}", std::generic_category().message(err)));
+    throw InputError(std::move(diag));
+  }
+  std::ostringstream text;
+  text << in.rdbuf();
+  if (in.bad()) {
+    diag.error({path, 0, 0}, "cannot read the scenario: read error");
+    throw InputError(std::move(diag));
+  }
+  auto scenario = parse_scenario(text.str(), path, diag);
+  if (!scenario) throw InputError(std::move(diag));
+  return std::move(*scenario);
+}
+
+}  // namespace larder

@@ -1,0 +1,44 @@
+#include "sim/stats/binomial.hpp"
+
+#include <cmath>
+
+namespace larder {
+
+int binomial_inverse(double u, int n, double p) {
+  if (n <= 0 || p <= 0.0) return 0;
+  if (p >= 1.0) return n;
+  const double q = 1.0 - p;
+  const double dn = static_cast<double>(n);
+  const double ratio = p / q;
+  // Start at the mode, where the pmf is largest and cannot underflow.
+  int k = static_cast<int>(std::floor((dn + 1.0) * p));
+  if (k > n) k = n;
+  const double log_pmf = std::lgamma(dn + 1.0) - std::lgamma(k + 1.0) - std::lgamma(dn - k + 1.0) +
+                         k * std::log(p) + (dn - k) * std::log(q);
+  const double pmf_mode = std::exp(log_pmf);
+  // cdf at the mode: sum the pmf downward until terms vanish.
+  double cdf = pmf_mode;
+  double term = pmf_mode;
+  for (int j = k; j > 0 && term > 1e-18 * cdf; --j) {
+    term *= static_cast<double>(j) / (dn - j + 1.0) / ratio;
+    cdf += term;
+  }
+  if (cdf >= u) {  // search down: drop pmf(k) while F(k-1) >= u
+    double pmf = pmf_mode;
+    while (k > 0 && cdf - pmf >= u) {
+      cdf -= pmf;
+      pmf *= static_cast<double>(k) / (dn - k + 1.0) / ratio;
+      --k;
+    }
+    return k;
+  }
+  double pmf = pmf_mode;  // search up
+  while (cdf < u && k < n) {
+    pmf *= (dn - k) / (k + 1.0) * ratio;
+    ++k;
+    cdf += pmf;
+  }
+  return k;
+}
+
+}  // namespace larder

@@ -1,0 +1,172 @@
+// End to end: the `larder` executable on the demo and on small scenarios, checking exit codes
+// (cli.md: 0 success, 2 bad input), the output files and their columns, and error messages.
+
+#include <fmt/format.h>
+#include <sys/wait.h>
+
+#include <array>
+#include <catch2/catch.hpp>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+namespace larder {
+namespace {
+
+namespace fs = std::filesystem;
+
+struct Outcome {
+  int code = -1;
+  std::string out;
+  std::string err;
+};
+
+fs::path scratch(const std::string& name) {
+  const fs::path p =
+      fs::temp_directory_path() / fmt::format("larder-cli-test-{}", ::getpid()) / name;
+  fs::remove_all(p);
+  fs::create_directories(p.parent_path());
+  return p;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+/// Runs `larder ARGS`, capturing stdout, stderr and the exit code.
+Outcome larder(const std::string& args) {
+  const fs::path err = scratch("stderr.txt");
+  const std::string cmd = fmt::format("{} {} 2>{}", LARDER_BINARY, args, err.string());
+  Outcome o;
+  FILE* pipe = ::popen(cmd.c_str(), "r");
+  REQUIRE(pipe != nullptr);
+  std::array<char, 4096> buf{};
+  size_t n = 0;
+  while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) o.out.append(buf.data(), n);
+  const int status = ::pclose(pipe);
+  o.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  o.err = slurp(err);
+  return o;
+}
+
+fs::path write_scenario(const std::string& name, const std::string& text) {
+  const fs::path p = scratch(name);
+  std::ofstream(p) << text;
+  return p;
+}
+
+std::vector<std::string> lines(const std::string& text) {
+  std::vector<std::string> out;
+  std::istringstream in(text);
+  for (std::string l; std::getline(in, l);) out.push_back(l);
+  return out;
+}
+
+const char* kSmall = R"(format: 1
+name: small
+seed: 3
+horizon: { days: 60, warmup_days: 7 }
+replications: 5
+stores: [ { id: corner } ]
+items:
+  - { id: roll, price: 1.5, unit_cost: 0.4, demand: { base: 30 } }
+  - { id: pie, price: 4, unit_cost: 1.5, shelf_life_days: 2, demand: { base: 8 } }
+policies:
+  - name: fixed
+    forecast: { method: oracle }
+    quantity: { rule: fixed, quantity: { roll: 35, pie: 9 } }
+  - name: fractile
+    forecast: { method: ses_weekday, alpha: 0.2 }
+    quantity: { rule: critical_fractile }
+)";
+
+TEST_CASE("larder run with no scenario runs the demo and writes the results", "[cli]") {
+  const fs::path out = scratch("demo-out");
+  const Outcome o = larder(fmt::format("run --quiet -r 4 --out {}", out.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(o.out.find("habit") != std::string::npos);
+  CHECK(o.out.find("newsvendor-oracle") != std::string::npos);
+  CHECK(o.err.empty());  // --quiet
+
+  const auto metrics = lines(slurp(out / "metrics.csv"));
+  REQUIRE(!metrics.empty());
+  CHECK(metrics[0] == "policy,metric,mean,stderr,ci_low,ci_high,replications");
+  const auto summary = nlohmann::json::parse(slurp(out / "summary.json"));
+  CHECK(summary["baseline"] == "habit");
+  CHECK(summary["replications"] == 4);
+  REQUIRE(summary["policies"].size() == 3);
+  CHECK(summary["policies"][0]["name"] == "habit");
+  const size_t n_metrics = summary["policies"][0]["metrics"].size();
+  CHECK(n_metrics >= 18);
+  CHECK(metrics.size() == 1 + 3 * n_metrics);
+  const auto reps = lines(slurp(out / "replications.csv"));
+  CHECK(reps.size() == 1 + 3 * 4);
+  CHECK(reps[0].rfind("policy,replication,demand_units,", 0) == 0);
+}
+
+TEST_CASE("larder run on a scenario file, JSON to stdout, same results at any thread count",
+          "[cli]") {
+  const fs::path file = write_scenario("small.yaml", kSmall);
+  const fs::path a = scratch("small-a");
+  const fs::path b = scratch("small-b");
+  const Outcome one = larder(
+      fmt::format("run {} --quiet --threads 1 --format json --out {}", file.string(), a.string()));
+  INFO(one.err);
+  REQUIRE(one.code == 0);
+  const auto j = nlohmann::json::parse(one.out);
+  CHECK(j["scenario"] == "small");
+  CHECK(j["seed"] == 3);
+  const Outcome two =
+      larder(fmt::format("run {} --quiet --threads 2 --out {}", file.string(), b.string()));
+  REQUIRE(two.code == 0);
+  CHECK(slurp(a / "replications.csv") == slurp(b / "replications.csv"));
+  CHECK(slurp(a / "metrics.csv") == slurp(b / "metrics.csv"));
+}
+
+TEST_CASE("larder check validates and summarises", "[cli]") {
+  const fs::path file = write_scenario("check.yaml", kSmall);
+  const Outcome o = larder(fmt::format("check {}", file.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(o.out.find("is valid") != std::string::npos);
+  CHECK(o.out.find("store-item-days") != std::string::npos);
+  // 1 store x 2 items x 60 open days, 53 of them scored.
+  CHECK(o.out.find("120 open per replication (106 scored)") != std::string::npos);
+  CHECK(o.out.find("estimate") != std::string::npos);
+}
+
+TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
+  std::string text = kSmall;
+  text.replace(text.find("shelf_life_days: 2"), 18, "shelf_life_days: 0");
+  const fs::path file = write_scenario("bad.yaml", text);
+  const Outcome o = larder(fmt::format("run {} --quiet", file.string()));
+  CHECK(o.code == 2);
+  // Line 9 holds the pie item, whose shelf life is now 0.
+  CHECK(o.err.find(fmt::format("{}:9:", file.string())) != std::string::npos);
+  CHECK(o.err.find("error: items[1].shelf_life_days must be >= 1 (got 0)") != std::string::npos);
+
+  const Outcome missing = larder("check /nonexistent/nowhere.yaml");
+  CHECK(missing.code == 2);
+  CHECK(missing.err.find("nowhere.yaml") != std::string::npos);
+
+  CHECK(larder("run --no-such-option").code == 2);
+  CHECK(larder("run --threads 0").code == 2);
+}
+
+TEST_CASE("--version and --help exit 0", "[cli]") {
+  const Outcome v = larder("--version");
+  CHECK(v.code == 0);
+  CHECK(v.out.find("larder ") != std::string::npos);
+  const Outcome h = larder("--help");
+  CHECK(h.code == 0);
+  CHECK(h.out.find("critical_fractile") != std::string::npos);
+}
+
+}  // namespace
+}  // namespace larder
