@@ -26,10 +26,14 @@ std::vector<DemandFamily> read_assume(PartContext& ctx) {
 }
 
 namespace {
-/// The normal count's quantile from a precomputed z = Phi^-1(p).
+/// The normal count's quantile from a precomputed z = Phi^-1(p): max(0, ceil(x)) with
+/// x = mean + sd * z - 0.5, by integer truncation (this runs per store-item-day).
 int normal_count_quantile(const DemandForecast& f, double z) {
-  const double x = std::ceil(f.mean + std::sqrt(std::max(f.variance, 0.0)) * z - 0.5);
-  return x <= 0.0 ? 0 : static_cast<int>(x);
+  const double x = f.mean + std::sqrt(std::max(f.variance, 0.0)) * z - 0.5;
+  if (!(x > 0.0)) return 0;
+  if (x >= 2e9) return 2000000000;
+  const int k = static_cast<int>(x);
+  return k + (static_cast<double>(k) < x ? 1 : 0);
 }
 }  // namespace
 

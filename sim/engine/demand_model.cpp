@@ -9,9 +9,9 @@ DemandModel::DemandModel(const Scenario& scenario) : scenario_(&scenario) {
   weekday_mean_.reserve(static_cast<size_t>(stores * items * kDaysPerWeek));
   samplers_.reserve(weekday_mean_.capacity());
   for (int s = 0; s < stores; ++s) {
-    for (int i = 0; i < items; ++i) {
-      const Item& it = scenario.items[static_cast<size_t>(i)];
-      for (int w = 0; w < kDaysPerWeek; ++w) {
+    for (int w = 0; w < kDaysPerWeek; ++w) {
+      for (int i = 0; i < items; ++i) {
+        const Item& it = scenario.items[static_cast<size_t>(i)];
         const double m = it.demand.base * scenario.stores[static_cast<size_t>(s)].size *
                          it.demand.weekday[static_cast<size_t>(w)];
         weekday_mean_.push_back(m);
@@ -34,8 +34,14 @@ DemandModel::DemandModel(const Scenario& scenario) : scenario_(&scenario) {
 
 std::size_t DemandModel::index(int store, int item, int weekday) const {
   const size_t items = scenario_->items.size();
-  return (static_cast<size_t>(store) * items + static_cast<size_t>(item)) * kDaysPerWeek +
-         static_cast<size_t>(weekday);
+  return (static_cast<size_t>(store) * kDaysPerWeek + static_cast<size_t>(weekday)) * items +
+         static_cast<size_t>(item);
+}
+
+const CountSampler* DemandModel::plain_samplers(int store, int day) const {
+  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  if (plain_day_[k] == 0) return nullptr;
+  return &samplers_[index(store, 0, scenario_->weekday_of(day))];
 }
 
 CountLaw DemandModel::law_with_mean(int item, double mean) const {

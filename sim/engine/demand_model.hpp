@@ -23,6 +23,9 @@ class DemandModel {
   CountLaw weekday_law(int store, int item, int weekday) const;
   /// The count for uniform `u` (0 on closed days). Fast when no event touches the day.
   int sample(int store, int item, int day, double u) const;
+  /// The samplers of every item of a store on `day`, contiguous by item, when the day is open
+  /// and no event touches it (the fast path); nullptr otherwise.
+  const CountSampler* plain_samplers(int store, int day) const;
   /// Bytes held per store-item (precomputed weekday samplers).
   std::size_t bytes_per_store_item() const;
 

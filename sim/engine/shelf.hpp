@@ -1,8 +1,11 @@
 #pragma once
 // Stock of one store under one policy, by item and remaining shelf life (model.md, steps 1-5).
 // Slot a of an item holds units that can be sold today and on the a following days; slot 0 is
-// the oldest (last sellable day), slot life-1 the freshest.
+// the oldest (last sellable day), slot life-1 the freshest. Defined inline: these run once per
+// store-item-day on the engine's hot path.
 
+#include <algorithm>
+#include <cassert>
 #include <cstdint>
 #include <span>
 #include <vector>
@@ -12,29 +15,72 @@ namespace larder {
 class Shelf {
  public:
   /// One entry per item: its shelf life in days (>= 1).
-  explicit Shelf(std::span<const int> shelf_life_days);
+  explicit Shelf(std::span<const int> shelf_life_days)
+      : life_(shelf_life_days.begin(), shelf_life_days.end()) {
+    int off = 0;
+    for (int l : life_) {
+      assert(l >= 1);
+      offset_.push_back(off);
+      off += l;
+    }
+    stock_.assign(static_cast<size_t>(off), 0);
+  }
 
   int life(int item) const { return life_[static_cast<size_t>(item)]; }
   /// Units of an item on the shelf.
-  int total(int item) const;
+  int total(int item) const { return at_least(item, 0); }
   /// Units with `a` or more further days to live (slots a..life-1).
-  int at_least(int item, int a) const;
+  int at_least(int item, int a) const {
+    const std::int32_t* s = slots(item);
+    int n = 0;
+    for (int k = std::max(a, 0); k < life(item); ++k) n += s[k];
+    return n;
+  }
   /// Morning delivery: units arrive as the freshest.
-  void receive(int item, int units) { slot(item, life(item) - 1) += units; }
+  void receive(int item, int units) { slots(item)[life(item) - 1] += units; }
   /// Sells `sold` units (<= total): `oldest` of them from the oldest end, the rest from the
   /// freshest end (exact: the two ends only meet when the shelf runs out).
-  void take(int item, int sold, int oldest);
+  void take(int item, int sold, int oldest) {
+    assert(oldest <= sold && sold <= total(item));
+    std::int32_t* s = slots(item);
+    const int l = life(item);
+    if (l == 1) {
+      s[0] -= sold;
+      return;
+    }
+    int need = oldest;
+    for (int a = 0; need > 0; ++a) {
+      const int t = std::min(need, static_cast<int>(s[a]));
+      s[a] -= t;
+      need -= t;
+    }
+    need = sold - oldest;
+    for (int a = l - 1; need > 0; --a) {
+      const int t = std::min(need, static_cast<int>(s[a]));
+      s[a] -= t;
+      need -= t;
+    }
+  }
   /// Removes and returns the units whose last sellable day is today.
-  int expire(int item);
+  int expire(int item) {
+    std::int32_t* s = slots(item);
+    const int n = s[0];
+    s[0] = 0;
+    return n;
+  }
   /// Overnight: every unit has one day less to live (call after expire).
-  void age(int item);
+  void age(int item) {
+    std::int32_t* s = slots(item);
+    const int l = life(item);
+    if (l == 1) return;  // slot 0 was emptied by expire
+    for (int a = 0; a + 1 < l; ++a) s[a] = s[a + 1];
+    s[l - 1] = 0;
+  }
 
  private:
-  std::int32_t& slot(int item, int a) {
-    return stock_[static_cast<size_t>(offset_[static_cast<size_t>(item)] + a)];
-  }
-  std::int32_t slot(int item, int a) const {
-    return stock_[static_cast<size_t>(offset_[static_cast<size_t>(item)] + a)];
+  std::int32_t* slots(int item) { return stock_.data() + offset_[static_cast<size_t>(item)]; }
+  const std::int32_t* slots(int item) const {
+    return stock_.data() + offset_[static_cast<size_t>(item)];
   }
 
   std::vector<int> life_;

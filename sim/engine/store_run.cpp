@@ -59,13 +59,12 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
                        static_cast<std::uint32_t>(store), static_cast<std::uint32_t>(i), p};
     };
     demand_streams_.push_back(make_stream(key(Purpose::demand)));
+    runtime_.push_back({item.shelf_life_days, item.leftovers, -1});
     // A picking split is random only when units of different ages can be on the shelf and
     // shoppers are mixed; otherwise it is deterministic and draws nothing.
     if (item.shelf_life_days > 1 && fifo > 0.0 && fifo < 1.0) {
-      picking_index_.push_back(static_cast<int>(picking_streams_.size()));
+      runtime_.back().picking = static_cast<int>(picking_streams_.size());
       picking_streams_.push_back(make_stream(key(Purpose::picking)));
-    } else {
-      picking_index_.push_back(-1);
     }
   }
   for (int t = 0; t < sc.horizon.days; ++t) open_.push_back(sc.is_open(store, t) ? 1 : 0);
@@ -109,51 +108,58 @@ void StoreRun::run_day(int day) {
   const bool scored = day >= sc.horizon.warmup_days;
   // One draw per store-item-day and purpose, open or not, so day t's draws never depend on
   // what happened before.
-  for (int i = 0; i < items_; ++i) {
-    const double u = to_unit(demand_streams_[static_cast<size_t>(i)]());
-    demand_[static_cast<size_t>(i)] = open ? setup_.demand.sample(store_, i, day, u) : 0;
+  if (const CountSampler* plain = setup_.demand.plain_samplers(store_, day)) {
+    for (size_t i = 0; i < demand_.size(); ++i)
+      demand_[i] = plain[i](to_unit(demand_streams_[i]()));
+  } else {
+    for (int i = 0; i < items_; ++i) {
+      const double u = to_unit(demand_streams_[static_cast<size_t>(i)]());
+      demand_[static_cast<size_t>(i)] = open ? setup_.demand.sample(store_, i, day, u) : 0;
+    }
   }
-  for (int i = 0; i < items_; ++i) {
-    const int k = picking_index_[static_cast<size_t>(i)];
-    if (k >= 0)
-      picking_u_[static_cast<size_t>(i)] = to_unit(picking_streams_[static_cast<size_t>(k)]());
+  for (size_t i = 0; i < runtime_.size(); ++i) {
+    const int k = runtime_[i].picking;
+    if (k >= 0) picking_u_[i] = to_unit(picking_streams_[static_cast<size_t>(k)]());
   }
   for (auto& lane : lanes_) run_lane(*lane, day, open, scored);
 }
 
 void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
-  const Scenario& sc = setup_.scenario;
   const size_t slot = static_cast<size_t>(day % lead_time_);
-  for (int i = 0; i < items_; ++i) {
-    const size_t ii = static_cast<size_t>(i);
-    const Item& item = sc.items[ii];
+  const size_t lead = static_cast<size_t>(lead_time_);
+  const double fifo = setup_.scenario.fifo_share;
+  for (size_t i = 0; i < demand_.size(); ++i) {
+    const int item = static_cast<int>(i);
+    const ItemRuntime& rt = runtime_[i];
     Observation o;
+    o.open = open;
     // 1. Morning delivery.
-    std::int32_t& due = lane.pipeline[ii * static_cast<size_t>(lead_time_) + slot];
+    std::int32_t& due = lane.pipeline[i * lead + slot];
     o.delivered = due;
     due = 0;
-    lane.shelf.receive(i, o.delivered);
-    // 2-3. Demand and service.
-    const int stock = lane.shelf.total(i);
-    const int demand = demand_[ii];
-    if (open) {
-      const int sold = std::min(demand, stock);
-      int oldest = 0;
-      if (picking_index_[ii] >= 0) {
-        oldest = binomial_inverse(picking_u_[ii], sold, sc.fifo_share);
-      } else if (sc.fifo_share >= 1.0) {
-        oldest = sold;
-      }
-      lane.shelf.take(i, sold, oldest);
-      o.open = true;
-      o.sold = sold;
+    // 2-3. Demand (0 on closed days) and service.
+    const int demand = demand_[i];
+    int stock = 0;
+    int leaving = 0;
+    if (rt.life == 1) {
+      // Nothing survives a night: today's stock is today's delivery and all of it leaves.
+      stock = o.delivered;
+      o.sold = std::min(demand, stock);
+      leaving = stock - o.sold;
+    } else {
+      lane.shelf.receive(item, o.delivered);
+      stock = lane.shelf.total(item);
+      o.sold = std::min(demand, stock);
+      const int oldest = rt.picking >= 0 ? binomial_inverse(picking_u_[i], o.sold, fifo)
+                                         : (fifo >= 1.0 ? o.sold : 0);
+      lane.shelf.take(item, o.sold, oldest);
+      leaving = lane.shelf.expire(item);  // 5. End of life.
+      lane.shelf.age(item);
     }
     // 4. Close.
     o.leftover = stock - o.sold;
     o.sold_out = open && o.leftover == 0;
-    // 5. End of life.
-    const int leaving = lane.shelf.expire(i);
-    switch (item.leftovers) {
+    switch (rt.leftovers) {
       case Leftovers::salvage:
         o.salvaged = leaving;
         break;
@@ -164,10 +170,9 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
         o.wasted = leaving;
         break;
     }
-    lane.shelf.age(i);
-    lane.observed[ii] = o;
+    lane.observed[i] = o;
     if (scored) {
-      Tally& t = lane.tally[ii];
+      Tally& t = lane.tally[i];
       t.demand += demand;
       t.sold += o.sold;
       t.lost += demand - o.sold;
@@ -176,8 +181,8 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
       t.donated += o.donated;
       t.delivered += o.delivered;
       t.open_days += open;
-      t.in_stock_days += open && o.leftover > 0;
-      t.no_stockout_days += open && demand <= stock;
+      t.in_stock_days += o.leftover > 0 && open;
+      t.no_stockout_days += demand <= stock && open;
       t.served_by_item += o.sold;
     }
   }
@@ -202,7 +207,7 @@ void StoreRun::place_orders(Lane& lane, int day, bool open) {
     OrderInput& in = lane.inputs[ii];
     in.forecast = lane.forecast[ii];
     // Units that will still be sellable on the arrival day, and units already on their way.
-    in.usable_stock = lane.shelf.at_least(i, lead_time_ - 1);
+    in.usable_stock = runtime_[ii].life == 1 ? 0 : lane.shelf.at_least(i, lead_time_ - 1);
     int on_order = 0;
     for (size_t k = 0; k < lead; ++k) on_order += lane.pipeline[ii * lead + k];
     in.on_order = on_order;

@@ -53,9 +53,15 @@ class StoreRun {
   std::vector<unsigned char> open_;     ///< per day: the store is open
   std::vector<pcg32> demand_streams_;   ///< one per item
   std::vector<pcg32> picking_streams_;  ///< one per item that needs a picking split
-  std::vector<int> picking_index_;      ///< item -> index into picking_streams_, or -1
-  std::vector<int> demand_;             ///< today's demand per item
-  std::vector<double> picking_u_;       ///< today's picking uniform per item
+  /// What the day loop needs of an item, packed.
+  struct ItemRuntime {
+    int life;
+    Leftovers leftovers;
+    int picking;  ///< index into picking_streams_, or -1 when the split is deterministic
+  };
+  std::vector<ItemRuntime> runtime_;
+  std::vector<int> demand_;        ///< today's demand per item
+  std::vector<double> picking_u_;  ///< today's picking uniform per item
   std::vector<std::unique_ptr<Lane>> lanes_;
 };
 
