@@ -2,22 +2,41 @@
 
 namespace larder {
 
+namespace {
+/// Memory the draw tables of a network may take (shared by all threads).
+constexpr std::size_t kTableBudgetBytes = std::size_t{1} << 30;
+}  // namespace
+
 DemandModel::DemandModel(const Scenario& scenario) : scenario_(&scenario) {
   const int stores = static_cast<int>(scenario.stores.size());
   const int items = static_cast<int>(scenario.items.size());
   const int days = scenario.horizon.days;
-  weekday_mean_.reserve(static_cast<size_t>(stores * items * kDaysPerWeek));
-  samplers_.reserve(weekday_mean_.capacity());
   for (int s = 0; s < stores; ++s) {
     for (int w = 0; w < kDaysPerWeek; ++w) {
       for (int i = 0; i < items; ++i) {
         const Item& it = scenario.items[static_cast<size_t>(i)];
-        const double m = it.demand.base * scenario.stores[static_cast<size_t>(s)].size *
-                         it.demand.weekday[static_cast<size_t>(w)];
-        weekday_mean_.push_back(m);
-        samplers_.emplace_back(law_with_mean(i, m));
+        weekday_mean_.push_back(it.demand.base * scenario.stores[static_cast<size_t>(s)].size *
+                                it.demand.weekday[static_cast<size_t>(w)]);
       }
     }
+  }
+  // Draw tables make sampling about twice as fast; a network too large for them within the
+  // memory budget draws with the samplers' walk instead (same counts, bit for bit).
+  std::size_t table_bytes = 0;
+  for (size_t k = 0; k < weekday_mean_.size(); ++k) {
+    const CountSampler sampler(
+        law_with_mean(static_cast<int>(k % static_cast<size_t>(items)), weekday_mean_[k]));
+    const int n = InversionTable::entries_needed(sampler);
+    if (n <= InversionTable::kMaxEntries &&
+        scenario.items[k % static_cast<size_t>(items)].demand.family != DemandFamily::normal)
+      table_bytes += InversionTable::bytes_for(n);
+  }
+  const int max_entries = table_bytes <= kTableBudgetBytes ? InversionTable::kMaxEntries : 0;
+  tables_.reserve(weekday_mean_.size());
+  for (size_t k = 0; k < weekday_mean_.size(); ++k) {
+    tables_.emplace_back(
+        law_with_mean(static_cast<int>(k % static_cast<size_t>(items)), weekday_mean_[k]),
+        max_entries);
   }
   plain_day_.resize(static_cast<size_t>(stores * days));
   open_day_.resize(plain_day_.size());
@@ -38,10 +57,10 @@ std::size_t DemandModel::index(int store, int item, int weekday) const {
          static_cast<size_t>(item);
 }
 
-const CountSampler* DemandModel::plain_samplers(int store, int day) const {
+const InversionTable* DemandModel::plain_tables(int store, int day) const {
   const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
   if (plain_day_[k] == 0) return nullptr;
-  return &samplers_[index(store, 0, scenario_->weekday_of(day))];
+  return &tables_[index(store, 0, scenario_->weekday_of(day))];
 }
 
 CountLaw DemandModel::law_with_mean(int item, double mean) const {
@@ -65,13 +84,16 @@ CountLaw DemandModel::weekday_law(int store, int item, int weekday) const {
 
 int DemandModel::sample(int store, int item, int day, double u) const {
   const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
-  if (plain_day_[k] != 0) return samplers_[index(store, item, scenario_->weekday_of(day))](u);
+  if (plain_day_[k] != 0) return tables_[index(store, item, scenario_->weekday_of(day))](u);
   if (open_day_[k] == 0) return 0;
   return law(store, item, day).quantile(u);
 }
 
 std::size_t DemandModel::bytes_per_store_item() const {
-  return kDaysPerWeek * (sizeof(double) + sizeof(CountSampler));
+  std::size_t b = 0;
+  for (const auto& t : tables_) b += t.bytes() + sizeof(double);
+  const std::size_t n = tables_.size() / kDaysPerWeek;
+  return n == 0 ? 0 : b / n;
 }
 
 }  // namespace larder

@@ -8,6 +8,7 @@
 
 #include "sim/scenario/scenario.hpp"
 #include "sim/stats/count_law.hpp"
+#include "sim/stats/inversion_table.hpp"
 
 namespace larder {
 
@@ -23,10 +24,10 @@ class DemandModel {
   CountLaw weekday_law(int store, int item, int weekday) const;
   /// The count for uniform `u` (0 on closed days). Fast when no event touches the day.
   int sample(int store, int item, int day, double u) const;
-  /// The samplers of every item of a store on `day`, contiguous by item, when the day is open
-  /// and no event touches it (the fast path); nullptr otherwise.
-  const CountSampler* plain_samplers(int store, int day) const;
-  /// Bytes held per store-item (precomputed weekday samplers).
+  /// The draw tables of every item of a store on `day`, contiguous by item, when the day is
+  /// open and no event touches it (the fast path); nullptr otherwise.
+  const InversionTable* plain_tables(int store, int day) const;
+  /// Bytes held per store-item on average (weekday means and draw tables).
   std::size_t bytes_per_store_item() const;
 
  private:
@@ -34,8 +35,8 @@ class DemandModel {
   CountLaw law_with_mean(int item, double mean) const;
 
   const Scenario* scenario_;
-  std::vector<double> weekday_mean_;      ///< [store][item][weekday]
-  std::vector<CountSampler> samplers_;    ///< [store][item][weekday]
+  std::vector<double> weekday_mean_;      ///< [store][weekday][item]
+  std::vector<InversionTable> tables_;    ///< [store][weekday][item]
   std::vector<unsigned char> plain_day_;  ///< [store][day]: 1 = open, no event multiplier
   std::vector<unsigned char> open_day_;   ///< [store][day]
   std::vector<double> event_factor_;      ///< [store][day]

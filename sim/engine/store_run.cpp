@@ -108,7 +108,7 @@ void StoreRun::run_day(int day) {
   const bool scored = day >= sc.horizon.warmup_days;
   // One draw per store-item-day and purpose, open or not, so day t's draws never depend on
   // what happened before.
-  if (const CountSampler* plain = setup_.demand.plain_samplers(store_, day)) {
+  if (const InversionTable* plain = setup_.demand.plain_tables(store_, day)) {
     for (size_t i = 0; i < demand_.size(); ++i)
       demand_[i] = plain[i](to_unit(demand_streams_[i]()));
   } else {

@@ -69,19 +69,22 @@ double nb_pmf(double k, double r, double mean) {
   return r / n * std::exp(lc - 0.5 * lf);
 }
 
-/// pmf recurrences for the poisson: p(k+1) from p(k) and p(k-1) from p(k).
+// pmf recurrences: p(k+1) from p(k) and p(k-1) from p(k). The ratio depends on k only, so its
+// division stays off the p -> p dependency chain and successive steps overlap in the CPU.
+
+/// Poisson: p(k+1) / p(k) = mean / (k + 1).
 struct PoissonStep {
   double mean;
-  double up(double p, double k) const { return p * mean / (k + 1.0); }
-  double down(double p, double k) const { return p * k / mean; }
+  double up(double p, double k) const { return p * (mean / (k + 1.0)); }
+  double down(double p, double k) const { return p * (k / mean); }
 };
 
-/// pmf recurrences for the negative binomial of size r with q = mean / (r + mean).
+/// Negative binomial of size r, q = mean / (r + mean): p(k+1) / p(k) = (k + r) q / (k + 1).
 struct NbStep {
   double r;
   double q;
-  double up(double p, double k) const { return p * ((k + r) * q) / (k + 1.0); }
-  double down(double p, double k) const { return p * k / ((k - 1.0 + r) * q); }
+  double up(double p, double k) const { return p * ((k + r) * q / (k + 1.0)); }
+  double down(double p, double k) const { return p * (k / ((k - 1.0 + r) * q)); }
 };
 
 /// The upper guard of every search: mean + 40 sd + 50, at most 2^30.
@@ -343,6 +346,57 @@ double CountSampler::walk_cdf(int k, Step step) const {
     f = next;
   }
   return std::min(f, 1.0);
+}
+
+template <class Step>
+void CountSampler::walk_cdf_run(int first, std::span<double> out, Step step) const {
+  // The same operations as walk_cdf, shared by consecutive k: down from the mode for k below
+  // it, up from the mode for k above it.
+  const double last = static_cast<double>(first) + static_cast<double>(out.size()) - 1.0;
+  double j = mode_;
+  double p = p_mode_;
+  double f = f_mode_;
+  const auto put = [&](double k, double value) {
+    if (k >= first && k <= last) out[static_cast<size_t>(k - first)] = value;
+  };
+  put(j, std::max(f, 0.0));
+  while (j > first) {
+    const double below = f - p;
+    p = step.down(p, j);
+    f = below;
+    j -= 1.0;
+    put(j, std::max(f, 0.0));
+  }
+  j = mode_;
+  p = p_mode_;
+  f = f_mode_;
+  bool flat = false;
+  while (j < last) {
+    if (!flat) {
+      p = step.up(p, j);
+      const double next = f + p;
+      if (next == f) {
+        flat = true;
+      } else {
+        f = next;
+      }
+    }
+    j += 1.0;
+    put(j, j >= cap_ ? 1.0 : std::min(f, 1.0));
+  }
+}
+
+void CountSampler::cdf_run(int first, std::span<double> out) const {
+  switch (kind_) {
+    case Kind::poisson:
+      walk_cdf_run(first, out, PoissonStep{mean_});
+      return;
+    case Kind::negative_binomial:
+      walk_cdf_run(first, out, NbStep{r_, q_});
+      return;
+    default:
+      for (size_t n = 0; n < out.size(); ++n) out[n] = cdf(first + static_cast<int>(n));
+  }
 }
 
 int CountSampler::operator()(double u) const {

@@ -5,6 +5,7 @@
 // expected sales, leftovers and shortages from the same law.
 
 #include <optional>
+#include <span>
 
 #include "sim/scenario/scenario.hpp"
 
@@ -17,7 +18,7 @@ namespace larder {
 /// r / (r + mean)). For `normal`, they are those of the underlying normal X, and the count is
 /// max(0, X rounded to the nearest integer): P(D <= x) = Phi((x + 0.5 - mean) / sd) for x >= 0.
 /// Its own mean then differs from `mean` by the truncated mass below 0 (negligible unless
-/// mean < 3 sd or so).
+/// mean < 3 sd or so). A mean of 0 gives the count 0 in every family, whatever the variance.
 struct CountLaw {
   DemandFamily family = DemandFamily::poisson;
   double mean = 0.0;
@@ -73,6 +74,10 @@ class CountSampler {
   /// P(D <= k) by the same accumulation as operator() (1 from the cap on).
   double cdf(int k) const;
 
+  /// P(D <= k) for k = first, first + 1, ... (out.size() values, first >= 0) in one pass,
+  /// bit-identical to cdf(k): for building lookup tables.
+  void cdf_run(int first, std::span<double> out) const;
+
   /// Largest count ever returned: about mean + 40 sd + 50, a guard for the far upper tail.
   int cap() const { return cap_; }
 
@@ -83,6 +88,8 @@ class CountSampler {
   int walk(double u, Step step) const;
   template <class Step>
   double walk_cdf(int k, Step step) const;
+  template <class Step>
+  void walk_cdf_run(int first, std::span<double> out, Step step) const;
 
   Kind kind_ = Kind::zero;
   int cap_ = 0;
