@@ -14,6 +14,8 @@ namespace larder {
 class Adjuster {
  public:
   virtual ~Adjuster() = default;
+  /// Sees every day's observations after close (before any order that day).
+  virtual void observe(int /*day*/, std::span<const Observation> /*observed*/) {}
   virtual void adjust(const OrderContext& ctx, std::span<const OrderInput> in,
                       std::span<const Observation> observed, std::span<int> orders) = 0;
 };

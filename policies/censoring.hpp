@@ -20,6 +20,9 @@ class CensoringState {
   /// the forecast that was made for it.
   virtual void treat(int day, std::span<const Observation> observed,
                      std::span<const DemandForecast> predicted, std::span<double> out) = 0;
+  /// May replace the forecast of `day` that the quantity rule will use (a treatment that
+  /// estimates the distribution itself, e.g. product-limit). Default: unchanged.
+  virtual void refine(int /*day*/, std::span<DemandForecast> /*forecast*/) const {}
 };
 
 /// A configured censoring treatment (immutable, shared by threads).

@@ -1,10 +1,12 @@
 #pragma once
 // Quantity rule: turns the forecast of the days a delivery serves into an order quantity.
 
+#include <cstdint>
 #include <memory>
 #include <span>
 
 #include "policies/forecast.hpp"
+#include "policies/observation.hpp"
 
 namespace larder {
 
@@ -14,6 +16,12 @@ struct OrderInput {
   int usable_stock = 0;     ///< units on hand that can still be sold on the arrival day
   int on_order = 0;         ///< units ordered earlier that arrive before the arrival day
   int sold_today = 0;       ///< today's full-price sales (0 on closed days)
+  /// Units on hand after tonight's ageing by remaining life: stock_by_age[a] can be sold from
+  /// tomorrow on for a + 1 more days (size = the item's shelf life; the last slot is empty).
+  std::span<const std::int32_t> stock_by_age;
+  /// Units already ordered by arrival day: pipeline[d] arrives on order_day + 1 + d
+  /// (size = lead time; the last slot, the arrival day itself, is 0 before this order).
+  std::span<const std::int32_t> pipeline;
 };
 
 /// The store and days a batch of decisions is for.
@@ -21,12 +29,18 @@ struct OrderContext {
   const StoreView& store;
   int order_day = 0;
   int arrival_day = 0;
+  /// The policy's forecast, for rules that need days other than the arrival day (shelf life
+  /// above one day, coverage until the next delivery).
+  const Forecaster* forecaster = nullptr;
 };
 
 /// Mutable rule state of one store, all items.
 class OrderRule {
  public:
   virtual ~OrderRule() = default;
+  /// Sees every day's observations after close (before any order that day); rules with a
+  /// memory (replayed history, behaviour) keep what they need.
+  virtual void observe(int /*day*/, std::span<const Observation> /*observed*/) {}
   /// Writes one non-negative order quantity per item (before adjustments and pack rounding).
   virtual void decide(const OrderContext& ctx, std::span<const OrderInput> in,
                       std::span<int> out) = 0;

@@ -27,6 +27,10 @@ class Shelf {
   }
 
   int life(int item) const { return life_[static_cast<size_t>(item)]; }
+  /// Units of an item by slot (slot 0 the oldest).
+  std::span<const std::int32_t> by_age(int item) const {
+    return {slots(item), static_cast<size_t>(life(item))};
+  }
   /// Units of an item on the shelf.
   int total(int item) const { return at_least(item, 0); }
   /// Units with `a` or more further days to live (slots a..life-1).

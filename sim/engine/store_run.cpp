@@ -16,6 +16,7 @@ struct StoreRun::Lane {
         rule(p.quantity->make(view)),
         shelf(life),
         pipeline(static_cast<size_t>(items * lead), 0),
+        pipeline_view(static_cast<size_t>(items * lead), 0),
         observed(static_cast<size_t>(items)),
         tally(static_cast<size_t>(items)),
         predicted(static_cast<size_t>(items)),
@@ -31,9 +32,10 @@ struct StoreRun::Lane {
   std::unique_ptr<OrderRule> rule;
   std::vector<std::unique_ptr<Adjuster>> adjusters;
   Shelf shelf;
-  std::vector<std::int32_t> pipeline;  ///< [item * lead + arrival_day % lead]
-  std::vector<Observation> observed;   ///< today's observations
-  std::vector<Tally> tally;            ///< scored-day counts
+  std::vector<std::int32_t> pipeline;       ///< [item * lead + arrival_day % lead]
+  std::vector<std::int32_t> pipeline_view;  ///< [item * lead + d]: arrives order_day + 1 + d
+  std::vector<Observation> observed;        ///< today's observations
+  std::vector<Tally> tally;                 ///< scored-day counts
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
@@ -96,7 +98,7 @@ void StoreRun::run_days(int begin, int end) {
     // The store opens with the policy's own orders for the first lead-time days, placed on
     // the days before the horizon (no sales history yet, so forecasts use their prior).
     for (auto& lane : lanes_) {
-      for (int d = -lead_time_; d < 0; ++d) place_orders(*lane, d, false);
+      for (int d = -lead_time_; d < 0; ++d) place_orders(*lane, d);
     }
   }
   for (int t = begin; t < end; ++t) run_day(t);
@@ -186,43 +188,59 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
       t.served_by_item += o.sold;
     }
   }
-  place_orders(lane, day, open);
+  learn(lane, day, open);
+  place_orders(lane, day);
 }
 
-void StoreRun::place_orders(Lane& lane, int day, bool open) {
-  const Scenario& sc = setup_.scenario;
+void StoreRun::learn(Lane& lane, int day, bool open) {
   if (open) {
     if (lane.censoring->needs_forecast()) lane.forecaster->predict(day, lane.predicted);
     lane.censoring->treat(day, lane.observed, lane.predicted, lane.estimates);
     lane.forecaster->observe(day, lane.estimates);
   }
+  lane.rule->observe(day, lane.observed);
+  for (auto& a : lane.adjusters) a->observe(day, lane.observed);
+}
+
+void StoreRun::place_orders(Lane& lane, int day) {
+  const Scenario& sc = setup_.scenario;
   const int arrival = day + lead_time_;
   if (arrival >= sc.horizon.days) return;
   // Nothing is ordered for a day the store is closed: it could not be sold that day.
   if (open_[static_cast<size_t>(arrival)] == 0) return;
   lane.forecaster->predict(arrival, lane.forecast);
-  const size_t lead = static_cast<size_t>(lead_time_);
+  lane.censoring->refine(arrival, lane.forecast);
+  const int lead = lead_time_;
+  const size_t ulead = static_cast<size_t>(lead);
   for (int i = 0; i < items_; ++i) {
     const size_t ii = static_cast<size_t>(i);
     OrderInput& in = lane.inputs[ii];
     in.forecast = lane.forecast[ii];
-    // Units that will still be sellable on the arrival day, and units already on their way.
-    in.usable_stock = runtime_[ii].life == 1 ? 0 : lane.shelf.at_least(i, lead_time_ - 1);
+    // Units that will still be sellable on the arrival day, and units already on their way,
+    // in arrival order.
+    in.usable_stock = runtime_[ii].life == 1 ? 0 : lane.shelf.at_least(i, lead - 1);
+    std::int32_t* view = &lane.pipeline_view[ii * ulead];
     int on_order = 0;
-    for (size_t k = 0; k < lead; ++k) on_order += lane.pipeline[ii * lead + k];
+    for (int d = 0; d < lead; ++d) {
+      const int slot = ((day + 1 + d) % lead + lead) % lead;
+      view[d] = lane.pipeline[ii * ulead + static_cast<size_t>(slot)];
+      on_order += view[d];
+    }
     in.on_order = on_order;
+    in.pipeline = {view, ulead};
+    in.stock_by_age = lane.shelf.by_age(i);
     in.sold_today = lane.observed[ii].sold;
   }
-  const OrderContext ctx{view_, day, arrival};
+  const OrderContext ctx{view_, day, arrival, lane.forecaster.get()};
   lane.rule->decide(ctx, lane.inputs, lane.orders);
   for (auto& a : lane.adjusters) a->adjust(ctx, lane.inputs, lane.observed, lane.orders);
-  const size_t slot = static_cast<size_t>(arrival % lead_time_);
+  const size_t slot = static_cast<size_t>(arrival % lead);
   for (int i = 0; i < items_; ++i) {
     const size_t ii = static_cast<size_t>(i);
     const int pack = sc.items[ii].pack_size;
     int q = std::max(lane.orders[ii], 0);
     if (pack > 1) q = (q + pack - 1) / pack * pack;  // round up to whole packs
-    lane.pipeline[ii * lead + slot] = q;
+    lane.pipeline[ii * ulead + slot] = q;
   }
 }
 

@@ -41,7 +41,8 @@ class StoreRun {
   struct Lane;
   void run_day(int day);
   void run_lane(Lane& lane, int day, bool open, bool scored);
-  void place_orders(Lane& lane, int day, bool open);
+  void learn(Lane& lane, int day, bool open);
+  void place_orders(Lane& lane, int day);
 
   const SimSetup& setup_;
   StoreView view_;
