@@ -60,8 +60,9 @@ int check_command(const CommonOptions& args) {
              sc.horizon.days, sc.horizon.warmup_days, sc.scored_days(), sc.replications, sc.seed,
              sc.seed_given ? "" : " (drawn at random)");
   fmt::print(
-      "  store-item-days  {} open per replication ({} scored), {} in all\n", e.open_store_item_days,
-      e.scored_store_item_days,
+      "  days          {} open store-item-days per replication ({} scored);\n"
+      "                {} simulated in all (x replications x policies)\n",
+      e.open_store_item_days, e.scored_store_item_days,
       e.open_store_item_days * sc.replications * static_cast<std::int64_t>(sc.policies.size()));
   if (e.poisson_fallback_days > 0) {
     fmt::print(

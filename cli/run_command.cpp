@@ -36,6 +36,7 @@ int run_command(const RunArgs& args) {
   } else {
     fmt::print("{}", comparison_table(result));
   }
+  std::fflush(stdout);
   if (!args.common.quiet) {
     fmt::print(stderr, "results written to {} ({} replications in {})\n", dir.string(),
                result.info.replications, format_duration(result.info.seconds));

@@ -137,7 +137,7 @@ TEST_CASE("larder check validates and summarises", "[cli]") {
   CHECK(o.out.find("is valid") != std::string::npos);
   CHECK(o.out.find("store-item-days") != std::string::npos);
   // 1 store x 2 items x 60 open days, 53 of them scored.
-  CHECK(o.out.find("120 open per replication (106 scored)") != std::string::npos);
+  CHECK(o.out.find("120 open store-item-days per replication (106 scored)") != std::string::npos);
   CHECK(o.out.find("estimate") != std::string::npos);
 }
 
