@@ -12,7 +12,10 @@ namespace larder {
 
 /// What a rule knows about one item when it orders after close on day `order_day`.
 struct OrderInput {
-  DemandForecast forecast;  ///< demand of the arrival day
+  /// Demand over the days this delivery serves: from the arrival day until the next delivery
+  /// arrives or the units expire (open days only; one day with daily deliveries).
+  DemandForecast forecast;
+  int cover_days = 1;  ///< calendar days that window spans
   int usable_stock = 0;     ///< units on hand that can still be sold on the arrival day
   int on_order = 0;         ///< units ordered earlier that arrive before the arrival day
   int sold_today = 0;       ///< today's full-price sales (0 on closed days)

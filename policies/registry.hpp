@@ -63,10 +63,27 @@ std::string Catalogue<Method>::names() const {
 // Registration functions, one per part file.
 void register_oracle(PolicyRegistry& r);
 void register_ses_weekday(PolicyRegistry& r);
+void register_moving_average(PolicyRegistry& r);
+void register_same_day_last_week(PolicyRegistry& r);
+void register_holt_winters(PolicyRegistry& r);
+void register_demand_chasing(PolicyRegistry& r);
 void register_ignore(PolicyRegistry& r);
+void register_drop(PolicyRegistry& r);
+void register_normal_tail(PolicyRegistry& r);
+void register_product_limit(PolicyRegistry& r);
 void register_fixed(PolicyRegistry& r);
 void register_base_stock(PolicyRegistry& r);
 void register_critical_fractile(PolicyRegistry& r);
 void register_in_stock_target(PolicyRegistry& r);
+void register_fill_rate_target(PolicyRegistry& r);
+void register_order_up_to(PolicyRegistry& r);
+void register_replay(PolicyRegistry& r);
+void register_pull_to_center(PolicyRegistry& r);
+void register_leftover_aversion(PolicyRegistry& r);
+void register_pack_round(PolicyRegistry& r);
+void register_shelf_cap(PolicyRegistry& r);
+void register_min_display(PolicyRegistry& r);
+void register_waste_feedback(PolicyRegistry& r);
+void register_cap_growth(PolicyRegistry& r);
 
 }  // namespace larder

@@ -159,7 +159,7 @@ TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
   CHECK(larder("run --threads 0").code == 2);
 }
 
-TEST_CASE("--version and --help exit 0", "[cli]") {
+TEST_CASE("the version and help flags exit 0", "[cli]") {
   const Outcome v = larder("--version");
   CHECK(v.code == 0);
   CHECK(v.out.find("larder ") != std::string::npos);

@@ -27,12 +27,14 @@ class DemandModel {
   /// The draw tables of every item of a store on `day`, contiguous by item, when the day is
   /// open and no event touches it (the fast path); nullptr otherwise.
   const InversionTable* plain_tables(int store, int day) const;
+  /// The law of an item's count when its day's mean is `mean` (shocks and goodwill multiply
+  /// the scenario's mean).
+  CountLaw law_with_mean(int item, double mean) const;
   /// Bytes held per store-item on average (weekday means and draw tables).
   std::size_t bytes_per_store_item() const;
 
  private:
   std::size_t index(int store, int item, int weekday) const;
-  CountLaw law_with_mean(int item, double mean) const;
 
   const Scenario* scenario_;
   std::vector<double> weekday_mean_;      ///< [store][weekday][item]

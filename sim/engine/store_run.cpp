@@ -5,6 +5,7 @@
 
 #include "sim/random/stream.hpp"
 #include "sim/stats/binomial.hpp"
+#include "sim/stats/normal.hpp"
 
 namespace larder {
 
@@ -19,8 +20,11 @@ struct StoreRun::Lane {
         pipeline_view(static_cast<size_t>(items * lead), 0),
         observed(static_cast<size_t>(items)),
         tally(static_cast<size_t>(items)),
+        goodwill(static_cast<size_t>(items), 1.0),
+        demand(static_cast<size_t>(items), 0),
         predicted(static_cast<size_t>(items)),
         forecast(static_cast<size_t>(items)),
+        day_forecast(static_cast<size_t>(items)),
         estimates(static_cast<size_t>(items)),
         inputs(static_cast<size_t>(items)),
         orders(static_cast<size_t>(items)) {
@@ -36,9 +40,12 @@ struct StoreRun::Lane {
   std::vector<std::int32_t> pipeline_view;  ///< [item * lead + d]: arrives order_day + 1 + d
   std::vector<Observation> observed;        ///< today's observations
   std::vector<Tally> tally;                 ///< scored-day counts
+  std::vector<double> goodwill;  ///< per item, 1 = no erosion (model.md, goodwill)
+  std::vector<int> demand;       ///< per item, when goodwill makes demand policy-specific
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
+  std::vector<DemandForecast> day_forecast;
   std::vector<double> estimates;
   std::vector<OrderInput> inputs;
   std::vector<int> orders;
@@ -69,7 +76,37 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
       picking_streams_.push_back(make_stream(key(Purpose::picking)));
     }
   }
-  for (int t = 0; t < sc.horizon.days; ++t) open_.push_back(sc.is_open(store, t) ? 1 : 0);
+  const int days = sc.horizon.days;
+  for (int t = 0; t < days; ++t) {
+    open_.push_back(sc.is_open(store, t) ? 1 : 0);
+    const bool weekday_ok = sc.logistics.delivery_weekdays[static_cast<size_t>(sc.weekday_of(t))];
+    delivery_.push_back(open_.back() != 0 && weekday_ok ? 1 : 0);
+  }
+  next_delivery_.assign(static_cast<size_t>(days), days);
+  for (int t = days - 2; t >= 0; --t) {
+    const size_t k = static_cast<size_t>(t);
+    next_delivery_[k] = delivery_[k + 1] != 0 ? t + 1 : next_delivery_[k + 1];
+  }
+  // Demand dynamics: every day takes the general path when any is on.
+  const DemandShocks& shocks = sc.shocks;
+  goodwill_ = sc.goodwill.sensitivity > 0.0;
+  dynamic_ = shocks.any() || goodwill_;
+  demand_u_.assign(static_cast<size_t>(items_), 0.0);
+  mean_.assign(static_cast<size_t>(items_), 0.0);
+  if (shocks.store_traffic_cv > 0.0) {
+    traffic_sigma_ = std::sqrt(std::log1p(shocks.store_traffic_cv * shocks.store_traffic_cv));
+    traffic_stream_ = make_stream({setup.seed, static_cast<std::uint32_t>(replication),
+                                   static_cast<std::uint32_t>(store), kNoItem, Purpose::traffic});
+  }
+  if (shocks.persistence_lag > 0 && shocks.persistence_cv > 0.0) {
+    persistence_sigma_ = std::sqrt(std::log1p(shocks.persistence_cv * shocks.persistence_cv));
+    for (int i = 0; i < items_; ++i) {
+      persistence_streams_.push_back(make_stream(
+          {setup.seed, static_cast<std::uint32_t>(replication), static_cast<std::uint32_t>(store),
+           static_cast<std::uint32_t>(i), Purpose::persistence}));
+    }
+    persistence_log_.assign(static_cast<size_t>(items_ * shocks.persistence_lag), 0.0);
+  }
   demand_.assign(static_cast<size_t>(items_), 0);
   picking_u_.assign(static_cast<size_t>(items_), 0.0);
   for (const Policy& p : setup.policies) {
@@ -110,14 +147,12 @@ void StoreRun::run_day(int day) {
   const bool scored = day >= sc.horizon.warmup_days;
   // One draw per store-item-day and purpose, open or not, so day t's draws never depend on
   // what happened before.
-  if (const InversionTable* plain = setup_.demand.plain_tables(store_, day)) {
+  const InversionTable* plain = dynamic_ ? nullptr : setup_.demand.plain_tables(store_, day);
+  if (plain != nullptr) {
     for (size_t i = 0; i < demand_.size(); ++i)
       demand_[i] = plain[i](to_unit(demand_streams_[i]()));
   } else {
-    for (int i = 0; i < items_; ++i) {
-      const double u = to_unit(demand_streams_[static_cast<size_t>(i)]());
-      demand_[static_cast<size_t>(i)] = open ? setup_.demand.sample(store_, i, day, u) : 0;
-    }
+    draw_dynamic_demand(day, open);
   }
   for (size_t i = 0; i < runtime_.size(); ++i) {
     const int k = runtime_[i].picking;
@@ -126,10 +161,52 @@ void StoreRun::run_day(int day) {
   for (auto& lane : lanes_) run_lane(*lane, day, open, scored);
 }
 
+void StoreRun::draw_dynamic_demand(int day, bool open) {
+  const DemandShocks& shocks = setup_.scenario.shocks;
+  // A lognormal with mean 1: exp(sigma z - sigma^2 / 2).
+  double traffic = 1.0;
+  if (traffic_sigma_ > 0.0) {
+    const double z = normal_quantile(to_unit(traffic_stream_()));
+    traffic = std::exp(traffic_sigma_ * z - 0.5 * traffic_sigma_ * traffic_sigma_);
+  }
+  const int lag = shocks.persistence_lag;
+  const double phi = shocks.persistence_coefficient;
+  for (int i = 0; i < items_; ++i) {
+    const size_t ii = static_cast<size_t>(i);
+    const double u = to_unit(demand_streams_[ii]());
+    double persistence = 1.0;
+    if (persistence_sigma_ > 0.0) {
+      // Log-AR(1) at the lag, stationary from day 0: x_t = phi x_{t-lag} + sqrt(1-phi^2) s z_t
+      // (x_t = s z_t for the first `lag` days), multiplier exp(x_t - s^2 / 2).
+      const double z = normal_quantile(to_unit(persistence_streams_[ii]()));
+      double& x = persistence_log_[ii * static_cast<size_t>(lag) + static_cast<size_t>(day % lag)];
+      const double s = persistence_sigma_;
+      x = day < lag ? s * z : phi * x + std::sqrt(1.0 - phi * phi) * s * z;
+      persistence = std::exp(x - 0.5 * s * s);
+    }
+    demand_u_[ii] = u;
+    mean_[ii] = open ? setup_.demand.mean(store_, i, day) * traffic * persistence : 0.0;
+    if (!goodwill_) {
+      demand_[ii] = mean_[ii] > 0.0 ? setup_.demand.law_with_mean(i, mean_[ii]).quantile(u) : 0;
+    }
+  }
+}
+
 void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
   const size_t slot = static_cast<size_t>(day % lead_time_);
   const size_t lead = static_cast<size_t>(lead_time_);
   const double fifo = setup_.scenario.fifo_share;
+  const int* demands = demand_.data();
+  if (goodwill_) {
+    // The same uniform as every other policy, the mean scaled by this policy's goodwill: the
+    // count moves monotonically with goodwill, never with noise (common random numbers).
+    for (int i = 0; i < items_; ++i) {
+      const size_t ii = static_cast<size_t>(i);
+      const double m = mean_[ii] * lane.goodwill[ii];
+      lane.demand[ii] = m > 0.0 ? setup_.demand.law_with_mean(i, m).quantile(demand_u_[ii]) : 0;
+    }
+    demands = lane.demand.data();
+  }
   for (size_t i = 0; i < demand_.size(); ++i) {
     const int item = static_cast<int>(i);
     const ItemRuntime& rt = runtime_[i];
@@ -140,7 +217,7 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
     o.delivered = due;
     due = 0;
     // 2-3. Demand (0 on closed days) and service.
-    const int demand = demand_[i];
+    const int demand = demands[i];
     int stock = 0;
     int leaving = 0;
     if (rt.life == 1) {
@@ -173,6 +250,14 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
         break;
     }
     lane.observed[i] = o;
+    if (goodwill_) {
+      // Erosion by the share of customers who met a stockout, then recovery toward 1 with
+      // the half-life (model.md, Demand).
+      const Goodwill& g = setup_.scenario.goodwill;
+      double& gw = lane.goodwill[i];
+      if (demand > 0) gw *= 1.0 - g.sensitivity * (demand - o.sold) / static_cast<double>(demand);
+      gw = 1.0 - (1.0 - gw) * std::exp2(-1.0 / g.half_life_days);
+    }
     if (scored) {
       Tally& t = lane.tally[i];
       t.demand += demand;
@@ -192,6 +277,28 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
   place_orders(lane, day);
 }
 
+void StoreRun::forecast_window(Lane& lane, int arrival) {
+  // A delivery serves its arrival day until the next delivery arrives or its units expire,
+  // whichever comes first; its forecast is the demand summed over the open days in between.
+  const int next = next_delivery_[static_cast<size_t>(arrival)];
+  int last = arrival + 1;
+  for (int life : shelf_life_) last = std::max(last, std::min(next, arrival + life));
+  for (auto& f : lane.forecast) f = {};
+  for (int d = arrival; d < last; ++d) {
+    if (open_[static_cast<size_t>(d)] == 0) continue;
+    lane.forecaster->predict(d, lane.day_forecast);
+    lane.censoring->refine(d, lane.day_forecast);
+    for (size_t i = 0; i < lane.forecast.size(); ++i) {
+      if (d >= std::min(next, arrival + shelf_life_[i])) continue;
+      lane.forecast[i].mean += lane.day_forecast[i].mean;
+      lane.forecast[i].variance += lane.day_forecast[i].variance;
+    }
+  }
+  for (size_t i = 0; i < lane.inputs.size(); ++i) {
+    lane.inputs[i].cover_days = std::min(next, arrival + shelf_life_[i]) - arrival;
+  }
+}
+
 void StoreRun::learn(Lane& lane, int day, bool open) {
   if (open) {
     if (lane.censoring->needs_forecast()) lane.forecaster->predict(day, lane.predicted);
@@ -206,10 +313,9 @@ void StoreRun::place_orders(Lane& lane, int day) {
   const Scenario& sc = setup_.scenario;
   const int arrival = day + lead_time_;
   if (arrival >= sc.horizon.days) return;
-  // Nothing is ordered for a day the store is closed: it could not be sold that day.
-  if (open_[static_cast<size_t>(arrival)] == 0) return;
-  lane.forecaster->predict(arrival, lane.forecast);
-  lane.censoring->refine(arrival, lane.forecast);
+  // Orders arrive only on delivery days: open and a delivery weekday.
+  if (delivery_[static_cast<size_t>(arrival)] == 0) return;
+  forecast_window(lane, arrival);
   const int lead = lead_time_;
   const size_t ulead = static_cast<size_t>(lead);
   for (int i = 0; i < items_; ++i) {
@@ -240,6 +346,12 @@ void StoreRun::place_orders(Lane& lane, int day) {
     const int pack = sc.items[ii].pack_size;
     int q = std::max(lane.orders[ii], 0);
     if (pack > 1) q = (q + pack - 1) / pack * pack;  // round up to whole packs
+    if (const auto& cap = sc.items[ii].shelf_capacity) {
+      // Capped by the shelf: on hand and on order plus this order fit, in whole packs.
+      const OrderInput& in = lane.inputs[ii];
+      const int room = std::max(*cap - in.usable_stock - in.on_order, 0);
+      if (q > room) q = room / pack * pack;
+    }
     lane.pipeline[ii * ulead + slot] = q;
   }
 }

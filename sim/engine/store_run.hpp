@@ -40,6 +40,9 @@ class StoreRun {
  private:
   struct Lane;
   void run_day(int day);
+  void draw_dynamic_demand(int day, bool open);
+  /// Sets each item's demand forecast over the days a delivery arriving on `arrival` serves.
+  void forecast_window(Lane& lane, int arrival);
   void run_lane(Lane& lane, int day, bool open, bool scored);
   void learn(Lane& lane, int day, bool open);
   void place_orders(Lane& lane, int day);
@@ -51,9 +54,11 @@ class StoreRun {
   int items_;
   int lead_time_;
   std::vector<int> shelf_life_;
-  std::vector<unsigned char> open_;     ///< per day: the store is open
-  std::vector<pcg32> demand_streams_;   ///< one per item
-  std::vector<pcg32> picking_streams_;  ///< one per item that needs a picking split
+  std::vector<unsigned char> open_;      ///< per day: the store is open
+  std::vector<unsigned char> delivery_;  ///< per day: open and a delivery weekday
+  std::vector<int> next_delivery_;       ///< per day: the next delivery day after it (or days)
+  std::vector<pcg32> demand_streams_;    ///< one per item
+  std::vector<pcg32> picking_streams_;   ///< one per item that needs a picking split
   /// What the day loop needs of an item, packed.
   struct ItemRuntime {
     int life;
@@ -61,8 +66,18 @@ class StoreRun {
     int picking;  ///< index into picking_streams_, or -1 when the split is deterministic
   };
   std::vector<ItemRuntime> runtime_;
-  std::vector<int> demand_;        ///< today's demand per item
-  std::vector<double> picking_u_;  ///< today's picking uniform per item
+  std::vector<int> demand_;       ///< today's demand per item (shared unless goodwill is on)
+  std::vector<double> demand_u_;  ///< today's demand uniform per item
+  std::vector<double> mean_;      ///< today's mean per item with shocks (dynamic days only)
+  // Demand dynamics (model.md): a traffic shock per store-day, AR(1) persistence per item.
+  bool dynamic_ = false;   ///< shocks or goodwill: every day takes the general path
+  bool goodwill_ = false;  ///< demand differs by policy (each lane draws its own count)
+  double traffic_sigma_ = 0.0;
+  double persistence_sigma_ = 0.0;
+  pcg32 traffic_stream_;
+  std::vector<pcg32> persistence_streams_;  ///< one per item when persistence is on
+  std::vector<double> persistence_log_;     ///< [item * lag + day % lag]: the AR(1) state
+  std::vector<double> picking_u_;           ///< today's picking uniform per item
   std::vector<std::unique_ptr<Lane>> lanes_;
 };
 

@@ -207,7 +207,7 @@ struct DemandDraft {
 struct ItemDraft {
   Field<double> price, unit_cost, salvage_value, disposal_cost, stockout_penalty, weight_kg,
       co2e_kg;
-  Field<int> shelf_life_days, pack_size;
+  Field<int> shelf_life_days, pack_size, shelf_capacity;
   Field<Leftovers> leftovers;
   std::map<std::string, std::string> attributes;
   DemandDraft demand;
@@ -261,6 +261,7 @@ void read_item_fields(Params& p, ItemDraft& d) {
   d.unit_cost = number_field(p, "unit_cost", Range::at_least(0));
   d.shelf_life_days = integer_field(p, "shelf_life_days", Range::at_least(1));
   d.pack_size = integer_field(p, "pack_size", Range::at_least(1));
+  d.shelf_capacity = integer_field(p, "shelf_capacity", Range::at_least(1));
   if (p.has("leftovers")) {
     d.leftovers.given = true;
     d.leftovers.where = p.location("leftovers");
@@ -312,6 +313,7 @@ Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
   item.unit_cost = unit_cost.value_or(0.0);
   item.shelf_life_days = pick(it.shelf_life_days, def.shelf_life_days).value.value_or(1);
   item.pack_size = pick(it.pack_size, def.pack_size).value.value_or(1);
+  item.shelf_capacity = pick(it.shelf_capacity, def.shelf_capacity).value;
   const Field<Leftovers>& leftovers = pick(it.leftovers, def.leftovers);
   item.leftovers = leftovers.value.value_or(Leftovers::discard);
   const Field<double>& salvage = pick(it.salvage_value, def.salvage_value);
@@ -408,9 +410,7 @@ class ScenarioReader {
     read_items(top);
     read_customers(top);
     read_logistics(top);
-    reject_unsupported(top, "demand_shocks",
-                       "store traffic and persistence shocks come in a later version; remove the "
-                       "key");
+    read_demand_shocks(top);
     read_policies(top);
     read_baseline(top);
     top.finish();
@@ -740,8 +740,32 @@ class ScenarioReader {
     scenario_.fifo_share = cp->number("fifo_share", scenario_.fifo_share, Range::probability());
     reject_unsupported(*cp, "discount_take_rate",
                        "discounted units come in a later version; remove the key");
-    reject_unsupported(*cp, "goodwill", "goodwill comes in a later version; remove the key");
+    if (auto gp = cp->mapping("goodwill")) {
+      Goodwill& g = scenario_.goodwill;
+      g.sensitivity = gp->number("sensitivity", g.sensitivity, Range::probability());
+      g.half_life_days = gp->number("half_life_days", g.half_life_days, Range::above(0));
+      gp->finish();
+    }
     cp->finish();
+  }
+
+  void read_demand_shocks(Params& top) {
+    auto sp = top.mapping("demand_shocks");
+    if (!sp) return;
+    DemandShocks& d = scenario_.shocks;
+    d.store_traffic_cv = sp->number("store_traffic_cv", d.store_traffic_cv, Range::at_least(0));
+    if (auto pp = sp->mapping("persistence")) {
+      d.persistence_lag = pp->integer("lag", 1, Range::between(1, 7));
+      if (d.persistence_lag != 1 && d.persistence_lag != 7) {
+        pp->error("lag",
+                  fmt::format("{} must be 1 or 7 (got {})", pp->path_of("lag"), d.persistence_lag),
+                  "1: yesterday carries over; 7: the same weekday last week carries over");
+      }
+      d.persistence_coefficient = pp->number("coefficient", 0.0, Range{0.0, 1.0, false, true});
+      d.persistence_cv = pp->number("cv", 0.0, Range::at_least(0));
+      pp->finish();
+    }
+    sp->finish();
   }
 
   void read_logistics(Params& top) {
@@ -752,11 +776,7 @@ class ScenarioReader {
     if (lp->has("delivery_weekdays")) {
       const auto set = read_weekday_set(lp->raw("delivery_weekdays"),
                                         lp->path_of("delivery_weekdays"), file_, diag_);
-      if (set && *set != kAllWeekdays) {
-        diag_.error(lp->key_location("delivery_weekdays"),
-                    fmt::format("logistics.delivery_weekdays {}", kNotSupported),
-                    "this version delivers every day: list all seven days or leave the key out");
-      }
+      if (set) l.delivery_weekdays = *set;
     }
     lp->finish();
   }

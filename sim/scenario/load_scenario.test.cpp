@@ -935,9 +935,15 @@ TEST_CASE("customers", "[scenario]") {
         Lines{"t.yaml:1:14: error: customers.discount_take_rate is not supported yet by this "
               "version of larder\n  hint: discounted units come in a later version; remove the "
               "key"});
-  CHECK(problems("customers: { goodwill: { sensitivity: 0.0, half_life_days: 14 } }\n") ==
-        Lines{"t.yaml:1:14: error: customers.goodwill is not supported yet by this version of "
-              "larder\n  hint: goodwill comes in a later version; remove the key"});
+  // model.md, Demand: goodwill sensitivity in [0, 1], half-life in days > 0.
+  const Scenario g =
+      valid("customers: { goodwill: { sensitivity: 0.5, half_life_days: 10 } }\n");
+  CHECK(g.goodwill.sensitivity == 0.5);
+  CHECK(g.goodwill.half_life_days == 10);
+  CHECK(problems("customers: { goodwill: { sensitivity: 2 } }\n") ==
+        Lines{"t.yaml:1:39: error: customers.goodwill.sensitivity must be in [0, 1] (got 2)"});
+  CHECK(problems("customers: { goodwill: { half_life_days: 0 } }\n") ==
+        Lines{"t.yaml:1:42: error: customers.goodwill.half_life_days must be > 0 (got 0)"});
 }
 
 TEST_CASE("logistics", "[scenario]") {
@@ -945,18 +951,32 @@ TEST_CASE("logistics", "[scenario]") {
   // brief: lead_time_days integer >= 1.
   CHECK(problems("logistics: { lead_time_days: 0 }\n") ==
         Lines{"t.yaml:1:30: error: logistics.lead_time_days must be >= 1 (got 0)"});
-  CHECK(problems("logistics: { delivery_weekdays: [mon, tue] }\n") ==
-        Lines{"t.yaml:1:14: error: logistics.delivery_weekdays is not supported yet by this "
-              "version of larder\n  hint: this version delivers every day: list all seven days "
-              "or leave the key out"});
+  // model.md: deliveries only happen on delivery weekdays.
+  const Scenario d = valid("logistics: { delivery_weekdays: [mon, wed, fri] }\n");
+  const larder::WeekdaySet mon_wed_fri = {true, false, true, false, true, false, false};
+  CHECK(d.logistics.delivery_weekdays == mon_wed_fri);
+  CHECK(problems("logistics: { delivery_weekdays: [mon, funday] }\n") ==
+        Lines{"t.yaml:1:39: error: logistics.delivery_weekdays[1] must be a weekday name (got "
+              "funday)\n  hint: weekdays are mon, tue, wed, thu, fri, sat, sun"});
 }
 
-TEST_CASE("demand shocks are not supported yet", "[scenario]") {
-  // brief: demand_shocks is listed in scenario.md but not implemented in this version.
-  CHECK(problems("demand_shocks: { store_traffic_cv: 0.10 }\n") ==
-        Lines{"t.yaml:1:1: error: demand_shocks is not supported yet by this version of larder\n"
-              "  hint: store traffic and persistence shocks come in a later version; remove the "
-              "key"});
+TEST_CASE("demand shocks", "[scenario]") {
+  // model.md, Demand: a store traffic shock with a cv, and AR(1) persistence at lag 1 or 7.
+  const Scenario s = valid(
+      "demand_shocks: { store_traffic_cv: 0.1, persistence: { lag: 7, coefficient: 0.3, cv: "
+      "0.15 } }\n");
+  CHECK(s.shocks.store_traffic_cv == 0.1);
+  CHECK(s.shocks.persistence_lag == 7);
+  CHECK(s.shocks.persistence_coefficient == 0.3);
+  CHECK(s.shocks.persistence_cv == 0.15);
+  CHECK(problems("demand_shocks: { store_traffic_cv: -0.1 }\n") ==
+        Lines{"t.yaml:1:36: error: demand_shocks.store_traffic_cv must be >= 0 (got -0.1)"});
+  CHECK(problems("demand_shocks: { persistence: { lag: 3, coefficient: 0.5 } }\n") ==
+        Lines{"t.yaml:1:38: error: demand_shocks.persistence.lag must be 1 or 7 (got 3)\n"
+              "  hint: 1: yesterday carries over; 7: the same weekday last week carries over"});
+  CHECK(problems("demand_shocks: { persistence: { lag: 1, coefficient: 1 } }\n") ==
+        Lines{"t.yaml:1:54: error: demand_shocks.persistence.coefficient must be in [0, 1) (got "
+              "1)"});
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -1031,4 +1051,12 @@ TEST_CASE("baseline names a policy", "[scenario]") {
               "  hint: did you mean 'current'?"});
   CHECK(problems(two + "baseline: zzzzzz\n") ==
         Lines{"t.yaml:4:11: error: baseline 'zzzzzz' is not one of the policies (current, new)"});
+}
+
+TEST_CASE("shelf capacity", "[scenario]") {
+  // model.md, step 6: orders are capped by shelf capacity when it is set (units, >= 1).
+  CHECK(valid("item_defaults: { shelf_capacity: 30 }\n").items[0].shelf_capacity == 30);
+  CHECK(!valid("").items[0].shelf_capacity.has_value());
+  CHECK(problems("item_defaults: { shelf_capacity: 0 }\n") ==
+        Lines{"t.yaml:1:34: error: item_defaults.shelf_capacity must be >= 1 (got 0)"});
 }

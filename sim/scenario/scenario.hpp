@@ -48,6 +48,7 @@ struct Item {
   double unit_cost = 0.0;
   int shelf_life_days = 1;
   int pack_size = 1;
+  std::optional<int> shelf_capacity;  ///< most units on the shelf after a delivery
   Leftovers leftovers = Leftovers::discard;
   double salvage_value = 0.0;     ///< per unit leaving by salvage
   double disposal_cost = 0.0;     ///< per wasted unit
@@ -91,6 +92,25 @@ struct Logistics {
   WeekdaySet delivery_weekdays = kAllWeekdays;
 };
 
+/// Random demand multipliers (model.md, Demand): a store-day traffic shock shared by the
+/// store's items, and a lognormal AR(1) persistence per store-item. Both have mean 1.
+struct DemandShocks {
+  double store_traffic_cv = 0.0;  ///< 0 = off
+  int persistence_lag = 0;        ///< 1 or 7 days; 0 = off
+  double persistence_coefficient = 0.0;
+  double persistence_cv = 0.0;  ///< stationary cv of the persistence multiplier
+
+  bool any() const {
+    return store_traffic_cv > 0.0 || (persistence_lag > 0 && persistence_cv > 0.0);
+  }
+};
+
+/// Goodwill erosion after stockouts (model.md): off when sensitivity is 0 (the default).
+struct Goodwill {
+  double sensitivity = 0.0;
+  double half_life_days = 14.0;
+};
+
 /// A policy part as written in the scenario: a method name plus its own parameters, which the
 /// part validates when it is created from the registry.
 struct PartSpec {
@@ -123,6 +143,8 @@ struct Scenario {
   std::vector<Store> stores;
   std::vector<Item> items;
   double fifo_share = 0.5;
+  Goodwill goodwill;
+  DemandShocks shocks;
   Logistics logistics;
   std::vector<PolicySpec> policies;
   int baseline = 0;  ///< index into policies
