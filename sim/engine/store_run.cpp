@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "sim/engine/demand_shocks.hpp"
 #include "sim/random/stream.hpp"
 #include "sim/stats/binomial.hpp"
 #include "sim/stats/normal.hpp"
@@ -40,8 +41,8 @@ struct StoreRun::Lane {
   std::vector<std::int32_t> pipeline_view;  ///< [item * lead + d]: arrives order_day + 1 + d
   std::vector<Observation> observed;        ///< today's observations
   std::vector<Tally> tally;                 ///< scored-day counts
-  std::vector<double> goodwill;  ///< per item, 1 = no erosion (model.md, goodwill)
-  std::vector<int> demand;       ///< per item, when goodwill makes demand policy-specific
+  std::vector<double> goodwill;             ///< per item, 1 = no erosion (model.md, goodwill)
+  std::vector<int> demand;  ///< per item, when goodwill makes demand policy-specific
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
@@ -94,12 +95,12 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
   demand_u_.assign(static_cast<size_t>(items_), 0.0);
   mean_.assign(static_cast<size_t>(items_), 0.0);
   if (shocks.store_traffic_cv > 0.0) {
-    traffic_sigma_ = std::sqrt(std::log1p(shocks.store_traffic_cv * shocks.store_traffic_cv));
+    traffic_sigma_ = lognormal_sigma(shocks.store_traffic_cv);
     traffic_stream_ = make_stream({setup.seed, static_cast<std::uint32_t>(replication),
                                    static_cast<std::uint32_t>(store), kNoItem, Purpose::traffic});
   }
   if (shocks.persistence_lag > 0 && shocks.persistence_cv > 0.0) {
-    persistence_sigma_ = std::sqrt(std::log1p(shocks.persistence_cv * shocks.persistence_cv));
+    persistence_sigma_ = lognormal_sigma(shocks.persistence_cv);
     for (int i = 0; i < items_; ++i) {
       persistence_streams_.push_back(make_stream(
           {setup.seed, static_cast<std::uint32_t>(replication), static_cast<std::uint32_t>(store),
@@ -163,26 +164,21 @@ void StoreRun::run_day(int day) {
 
 void StoreRun::draw_dynamic_demand(int day, bool open) {
   const DemandShocks& shocks = setup_.scenario.shocks;
-  // A lognormal with mean 1: exp(sigma z - sigma^2 / 2).
   double traffic = 1.0;
   if (traffic_sigma_ > 0.0) {
     const double z = normal_quantile(to_unit(traffic_stream_()));
-    traffic = std::exp(traffic_sigma_ * z - 0.5 * traffic_sigma_ * traffic_sigma_);
+    traffic = mean_one_multiplier(traffic_sigma_ * z, traffic_sigma_);
   }
   const int lag = shocks.persistence_lag;
-  const double phi = shocks.persistence_coefficient;
   for (int i = 0; i < items_; ++i) {
     const size_t ii = static_cast<size_t>(i);
     const double u = to_unit(demand_streams_[ii]());
     double persistence = 1.0;
     if (persistence_sigma_ > 0.0) {
-      // Log-AR(1) at the lag, stationary from day 0: x_t = phi x_{t-lag} + sqrt(1-phi^2) s z_t
-      // (x_t = s z_t for the first `lag` days), multiplier exp(x_t - s^2 / 2).
       const double z = normal_quantile(to_unit(persistence_streams_[ii]()));
       double& x = persistence_log_[ii * static_cast<size_t>(lag) + static_cast<size_t>(day % lag)];
-      const double s = persistence_sigma_;
-      x = day < lag ? s * z : phi * x + std::sqrt(1.0 - phi * phi) * s * z;
-      persistence = std::exp(x - 0.5 * s * s);
+      x = log_ar1_step(x, z, shocks.persistence_coefficient, persistence_sigma_, day < lag);
+      persistence = mean_one_multiplier(x, persistence_sigma_);
     }
     demand_u_[ii] = u;
     mean_[ii] = open ? setup_.demand.mean(store_, i, day) * traffic * persistence : 0.0;
@@ -283,6 +279,12 @@ void StoreRun::forecast_window(Lane& lane, int arrival) {
   const int next = next_delivery_[static_cast<size_t>(arrival)];
   int last = arrival + 1;
   for (int life : shelf_life_) last = std::max(last, std::min(next, arrival + life));
+  if (last == arrival + 1) {  // one day for every item: the usual daily delivery
+    lane.forecaster->predict(arrival, lane.forecast);
+    lane.censoring->refine(arrival, lane.forecast);
+    for (auto& in : lane.inputs) in.cover_days = 1;
+    return;
+  }
   for (auto& f : lane.forecast) f = {};
   for (int d = arrival; d < last; ++d) {
     if (open_[static_cast<size_t>(d)] == 0) continue;
