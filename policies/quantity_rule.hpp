@@ -17,7 +17,7 @@ struct OrderInput {
   DemandForecast forecast;
   int cover_days = 1;  ///< calendar days that window spans
   int usable_stock = 0;     ///< units on hand that can still be sold on the arrival day
-  int on_order = 0;         ///< units ordered earlier that arrive before the arrival day
+  int on_order = 0;  ///< units ordered earlier, arriving before the arrival day and still sellable on it
   int sold_today = 0;       ///< today's full-price sales (0 on closed days)
   /// Units on hand after tonight's ageing by remaining life: stock_by_age[a] can be sold from
   /// tomorrow on for a + 1 more days (size = the item's shelf life; the last slot is empty).

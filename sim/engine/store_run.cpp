@@ -332,7 +332,9 @@ void StoreRun::place_orders(Lane& lane, int day) {
     for (int d = 0; d < lead; ++d) {
       const int slot = ((day + 1 + d) % lead + lead) % lead;
       view[d] = lane.pipeline[ii * ulead + static_cast<size_t>(slot)];
-      on_order += view[d];
+      // Count only units still sellable on the arrival day: a unit arriving d + 1 days from
+      // now lives until d + life, so it reaches the arrival day when d >= lead - life.
+      if (d >= lead - runtime_[ii].life) on_order += view[d];
     }
     in.on_order = on_order;
     in.pipeline = {view, ulead};
