@@ -100,13 +100,13 @@ TEST_CASE("larder run with no scenario runs the demo and writes the results", "[
   const auto summary = nlohmann::json::parse(slurp(out / "summary.json"));
   CHECK(summary["baseline"] == "habit");
   CHECK(summary["replications"] == 4);
-  REQUIRE(summary["policies"].size() == 3);
+  REQUIRE(summary["policies"].size() == 4);
   CHECK(summary["policies"][0]["name"] == "habit");
   const size_t n_metrics = summary["policies"][0]["metrics"].size();
   CHECK(n_metrics >= 18);
-  CHECK(metrics.size() == 1 + 3 * n_metrics);
+  CHECK(metrics.size() == 1 + 4 * n_metrics);
   const auto reps = lines(slurp(out / "replications.csv"));
-  CHECK(reps.size() == 1 + 3 * 4);
+  CHECK(reps.size() == 1 + 4 * 4);
   CHECK(reps[0].rfind("policy,replication,demand_units,", 0) == 0);
 }
 
