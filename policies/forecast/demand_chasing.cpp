@@ -9,36 +9,8 @@
 
 #include "policies/forecast/ses_weekday.hpp"
 #include "policies/registry.hpp"
-#include "sim/engine/demand_model.hpp"
 
 namespace larder {
-
-namespace {
-
-class DemandChasingMethod : public ForecastMethod {
- public:
-  DemandChasingMethod(double alpha, bool from_data) : alpha_(alpha), from_data_(from_data) {}
-
-  std::unique_ptr<Forecaster> make(const StoreView& v) const override {
-    std::vector<std::array<SesState, kDaysPerWeek>> prior(static_cast<size_t>(v.item_count()));
-    if (!from_data_) {
-      // The same prior as every forecast: the true weekday mean and variance (policies.md).
-      for (int i = 0; i < v.item_count(); ++i) {
-        for (int w = 0; w < kDaysPerWeek; ++w) {
-          const CountLaw law = v.truth.weekday_law(v.store, i, w);
-          prior[static_cast<size_t>(i)][static_cast<size_t>(w)] = {law.mean, law.variance, true};
-        }
-      }
-    }
-    return std::make_unique<SesWeekday>(v.scenario, alpha_, std::move(prior));
-  }
-
- private:
-  double alpha_;
-  bool from_data_;
-};
-
-}  // namespace
 
 void register_demand_chasing(PolicyRegistry& r) {
   r.forecasts.add(
@@ -48,7 +20,7 @@ void register_demand_chasing(PolicyRegistry& r) {
        [](PartContext& ctx) -> std::unique_ptr<ForecastMethod> {
          const double alpha = ctx.params.number("alpha", 0.8, {0.0, 1.0, true, false});
          const std::string initial = ctx.params.choice("initial", "prior", {"prior", "first_week"});
-         return std::make_unique<DemandChasingMethod>(alpha, initial == "first_week");
+         return std::make_unique<SesWeekdayMethod>(alpha, initial == "first_week");
        }});
 }
 

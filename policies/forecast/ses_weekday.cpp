@@ -34,29 +34,22 @@ void SesWeekday::predict(int day, std::span<DemandForecast> out) const {
   }
 }
 
-namespace {
-class SesWeekdayMethod : public ForecastMethod {
- public:
-  SesWeekdayMethod(double alpha, bool from_data) : alpha_(alpha), from_data_(from_data) {}
-  std::unique_ptr<Forecaster> make(const StoreView& v) const override {
-    std::vector<std::array<SesState, kDaysPerWeek>> prior(static_cast<size_t>(v.item_count()));
-    if (!from_data_) {
-      // "A planner with a sensible prior": the true weekday mean and variance (policies.md).
-      for (int i = 0; i < v.item_count(); ++i) {
-        for (int w = 0; w < kDaysPerWeek; ++w) {
-          const CountLaw law = v.truth.weekday_law(v.store, i, w);
-          prior[static_cast<size_t>(i)][static_cast<size_t>(w)] = {law.mean, law.variance, true};
-        }
+SesWeekdayMethod::SesWeekdayMethod(double alpha, bool from_data)
+    : alpha_(alpha), from_data_(from_data) {}
+
+std::unique_ptr<Forecaster> SesWeekdayMethod::make(const StoreView& v) const {
+  std::vector<std::array<SesState, kDaysPerWeek>> prior(static_cast<size_t>(v.item_count()));
+  if (!from_data_) {
+    // "A planner with a sensible prior": the true weekday mean and variance (policies.md).
+    for (int i = 0; i < v.item_count(); ++i) {
+      for (int w = 0; w < kDaysPerWeek; ++w) {
+        const CountLaw law = v.truth.weekday_law(v.store, i, w);
+        prior[static_cast<size_t>(i)][static_cast<size_t>(w)] = {law.mean, law.variance, true};
       }
     }
-    return std::make_unique<SesWeekday>(v.scenario, alpha_, std::move(prior));
   }
-
- private:
-  double alpha_;
-  bool from_data_;
-};
-}  // namespace
+  return std::make_unique<SesWeekday>(v.scenario, alpha_, std::move(prior));
+}
 
 void register_ses_weekday(PolicyRegistry& r) {
   r.forecasts.add(

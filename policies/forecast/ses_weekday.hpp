@@ -38,4 +38,17 @@ class SesWeekday : public Forecaster {
   std::vector<std::array<SesState, kDaysPerWeek>> state_;
 };
 
+/// The configured method: weekday smoothing with `alpha`, started from the true weekday
+/// distribution (the prior) or from the first observations (`from_data`). Shared by
+/// `ses_weekday` and the behavioural `demand_chasing`.
+class SesWeekdayMethod : public ForecastMethod {
+ public:
+  SesWeekdayMethod(double alpha, bool from_data);
+  std::unique_ptr<Forecaster> make(const StoreView& v) const override;
+
+ private:
+  double alpha_;
+  bool from_data_;
+};
+
 }  // namespace larder

@@ -1,9 +1,9 @@
 // ses_weekday against the textbook recursion worked in checks.md 7.1 (values [C]: computed and
 // matched to statsmodels SimpleExpSmoothing with initialization_method='known').
 
-#include <catch2/catch.hpp>
-
 #include "policies/forecast/ses_weekday.hpp"
+
+#include <catch2/catch.hpp>
 
 namespace larder {
 namespace {
@@ -12,7 +12,7 @@ TEST_CASE("ses_update follows l_t = alpha y_t + (1 - alpha) l_{t-1} (checks.md 7
           "[policies][forecast]") {
   // y, alpha = 0.3, l_0 = 14: fitted values 14, 13.4, 13.88, ... and forecast 15.5568756107.
   const double y[] = {12, 15, 11, 14, 18, 16, 13, 17, 19, 15, 14, 16};
-  const double fitted[] = {14,       13.4,      13.88,     13.016,    13.3112,   14.71784,
+  const double fitted[] = {14,        13.4,      13.88,     13.016,    13.3112,   14.71784,
                            15.102488, 14.471742, 15.230219, 16.361153, 15.952807, 15.366965};
   SesState s{14.0, 1.0, true};
   for (int t = 0; t < 12; ++t) {
