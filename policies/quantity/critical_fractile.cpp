@@ -20,20 +20,22 @@ double critical_ratio(const Item& item, double penalty) {
   return std::min(under / denominator, 1.0);
 }
 
-namespace {
-class CriticalFractile : public QuantityMethod {
- public:
-  CriticalFractile(std::vector<double> ratio, std::vector<DemandFamily> family)
-      : ratio_(std::move(ratio)), family_(std::move(family)) {}
-  std::unique_ptr<OrderRule> make(const StoreView&) const override {
-    return std::make_unique<FractileRule>(ratio_, family_, 0);
+std::vector<double> read_critical_ratios(PartContext& ctx) {
+  const auto penalty = ctx.params.optional_number("penalty", Range::at_least(0.0));
+  std::vector<double> ratio;
+  for (const Item& item : ctx.scenario.items) {
+    const double cr = critical_ratio(item, penalty.value_or(item.stockout_penalty));
+    if (cr >= 1.0) {
+      ctx.params.error("",
+                       fmt::format("{}: item '{}' has a critical ratio of 1 (its leftovers "
+                                   "recover the full cost)",
+                                   ctx.params.path(), item.id),
+                       "salvage_value must be below unit_cost");
+    }
+    ratio.push_back(cr);
   }
-
- private:
-  std::vector<double> ratio_;
-  std::vector<DemandFamily> family_;
-};
-}  // namespace
+  return ratio;
+}
 
 void register_critical_fractile(PolicyRegistry& r) {
   r.quantities.add(
@@ -41,20 +43,8 @@ void register_critical_fractile(PolicyRegistry& r) {
        "newsvendor: smallest Q with P(D <= Q) >= (p - c + g) / (p - s + g) from item economics "
        "(penalty: overrides the items' stockout_penalty; assume: family)",
        [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
-         const auto penalty = ctx.params.optional_number("penalty", Range::at_least(0.0));
-         std::vector<double> ratio;
-         for (const Item& item : ctx.scenario.items) {
-           const double cr = critical_ratio(item, penalty.value_or(item.stockout_penalty));
-           if (cr >= 1.0) {
-             ctx.params.error("",
-                              fmt::format("{}: item '{}' has a critical ratio of 1 (its "
-                                          "leftovers recover the full cost)",
-                                          ctx.params.path(), item.id),
-                              "salvage_value must be below unit_cost");
-           }
-           ratio.push_back(cr);
-         }
-         return std::make_unique<CriticalFractile>(std::move(ratio), read_assume(ctx));
+         auto ratio = read_critical_ratios(ctx);
+         return std::make_unique<FractileMethod>(std::move(ratio), read_assume(ctx), 0);
        }});
 }
 

@@ -32,4 +32,20 @@ class FractileRule : public OrderRule {
   int extra_;
 };
 
+/// A configured quantile rule: one probability and family per item, plus `extra` units.
+/// `critical_fractile`, `in_stock_target` and `leftover_aversion` differ only in these.
+class FractileMethod : public QuantityMethod {
+ public:
+  FractileMethod(std::vector<double> probability, std::vector<DemandFamily> family, int extra)
+      : probability_(std::move(probability)), family_(std::move(family)), extra_(extra) {}
+  std::unique_ptr<OrderRule> make(const StoreView&) const override {
+    return std::make_unique<FractileRule>(probability_, family_, extra_);
+  }
+
+ private:
+  std::vector<double> probability_;
+  std::vector<DemandFamily> family_;
+  int extra_;
+};
+
 }  // namespace larder

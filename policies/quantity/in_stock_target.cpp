@@ -9,21 +9,6 @@
 
 namespace larder {
 
-namespace {
-class InStockTarget : public QuantityMethod {
- public:
-  InStockTarget(std::vector<double> level, std::vector<DemandFamily> family)
-      : level_(std::move(level)), family_(std::move(family)) {}
-  std::unique_ptr<OrderRule> make(const StoreView&) const override {
-    return std::make_unique<FractileRule>(level_, family_, 1);
-  }
-
- private:
-  std::vector<double> level_;
-  std::vector<DemandFamily> family_;
-};
-}  // namespace
-
 void register_in_stock_target(PolicyRegistry& r) {
   r.quantities.add({"in_stock_target",
                     "smallest Q with P(D <= Q - 1) >= level: a unit left at close with "
@@ -32,7 +17,8 @@ void register_in_stock_target(PolicyRegistry& r) {
                       auto level = read_item_values(ctx, "level", {0.0, 1.0, true, true}, true);
                       auto family = read_assume(ctx);
                       if (!level) return nullptr;
-                      return std::make_unique<InStockTarget>(std::move(*level), std::move(family));
+                      return std::make_unique<FractileMethod>(std::move(*level), std::move(family),
+                                                              1);
                     }});
 }
 

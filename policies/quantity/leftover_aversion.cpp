@@ -30,23 +30,6 @@ double leftover_aversion_ratio(const Item& item, double penalty, double leftover
   return under / (under + over);
 }
 
-namespace {
-
-class LeftoverAversion : public QuantityMethod {
- public:
-  LeftoverAversion(std::vector<double> ratio, std::vector<DemandFamily> family)
-      : ratio_(std::move(ratio)), family_(std::move(family)) {}
-  std::unique_ptr<OrderRule> make(const StoreView&) const override {
-    return std::make_unique<FractileRule>(ratio_, family_, 0);
-  }
-
- private:
-  std::vector<double> ratio_;
-  std::vector<DemandFamily> family_;
-};
-
-}  // namespace
-
 void register_leftover_aversion(PolicyRegistry& r) {
   r.quantities.add(
       {"leftover_aversion",
@@ -74,7 +57,7 @@ void register_leftover_aversion(PolicyRegistry& r) {
            }
            ratio.push_back(std::min(cr, 1.0));
          }
-         return std::make_unique<LeftoverAversion>(std::move(ratio), std::move(family));
+         return std::make_unique<FractileMethod>(std::move(ratio), std::move(family), 0);
        }});
 }
 

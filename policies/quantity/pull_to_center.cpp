@@ -59,19 +59,7 @@ void register_pull_to_center(PolicyRegistry& r) {
        "assume: family)",
        [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
          const double w = ctx.params.number("w", 0.3, Range::probability());
-         const auto penalty = ctx.params.optional_number("penalty", Range::at_least(0.0));
-         std::vector<double> ratio;
-         for (const Item& item : ctx.scenario.items) {
-           const double cr = critical_ratio(item, penalty.value_or(item.stockout_penalty));
-           if (cr >= 1.0) {
-             ctx.params.error("",
-                              fmt::format("{}: item '{}' has a critical ratio of 1 (its "
-                                          "leftovers recover the full cost)",
-                                          ctx.params.path(), item.id),
-                              "salvage_value must be below unit_cost");
-           }
-           ratio.push_back(cr);
-         }
+         auto ratio = read_critical_ratios(ctx);
          return std::make_unique<PullToCenter>(std::move(ratio), read_assume(ctx), w);
        }});
 }
