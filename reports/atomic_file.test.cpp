@@ -15,16 +15,7 @@ namespace fs = std::filesystem;
 using larder::test::folder_entries;
 using larder::test::ScratchDir;
 
-namespace {
-
-std::string read_all(const fs::path& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-}  // namespace
+using larder::test::read_all;
 
 TEST_CASE("write_file_atomically writes the whole content and leaves no temporary", "[reports]") {
   ScratchDir dir("atomic-new");

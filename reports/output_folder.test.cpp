@@ -11,16 +11,7 @@
 
 namespace fs = std::filesystem;
 
-namespace {
-
-std::string read_all(const fs::path& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-}  // namespace
+using larder::test::read_all;
 
 TEST_CASE("write_run_outputs creates the folder and writes the three files", "[reports]") {
   larder::test::ScratchDir scratch("output-folder");

@@ -1,4 +1,6 @@
 #pragma once
+#include <fstream>
+#include <sstream>
 // A small run result built by hand for the report tests: 3 policies x 5 replications x 6
 // metrics, with values chosen so that the differences against the baseline cover significantly
 // better, significantly worse, neutral-but-significant and not significant. Expected statistics
@@ -120,6 +122,14 @@ inline double parse_double(const std::string& s) {
   char* end = nullptr;
   const double v = std::strtod(s.c_str(), &end);
   return end == s.c_str() + s.size() && !s.empty() ? v : std::nan("");
+}
+
+/// The whole content of a file, as bytes.
+inline std::string read_all(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
 }
 
 /// A fresh empty folder under the system temporary folder, removed with everything in it when

@@ -6,6 +6,7 @@
 #include <catch2/catch.hpp>
 #include <cmath>
 
+#include "policies/forecast/forecast_fixture.test.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "tests/fixture.hpp"
 
@@ -35,15 +36,8 @@ policies:
                      policies);
 }
 
-DemandForecast predict_one(const Forecaster& f, int day) {
-  DemandForecast out;
-  f.predict(day, std::span<DemandForecast>(&out, 1));
-  return out;
-}
-
-void observe_one(Forecaster& f, int day, double y) {
-  f.observe(day, std::span<const double>(&y, 1));
-}
+using forecast_test::observe_one;
+using forecast_test::predict_one;
 
 TEST_CASE("demand_chasing is the weekday SES recursion with its alpha (checks.md 7.1)",
           "[policies][forecast]") {

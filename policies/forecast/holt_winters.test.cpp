@@ -10,6 +10,7 @@
 #include <cmath>
 #include <limits>
 
+#include "policies/forecast/forecast_fixture.test.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "tests/fixture.hpp"
 
@@ -34,15 +35,8 @@ policies:
                      store_extra, demand_extra, forecast);
 }
 
-DemandForecast predict_one(const Forecaster& f, int day) {
-  DemandForecast out;
-  f.predict(day, std::span<DemandForecast>(&out, 1));
-  return out;
-}
-
-void observe_one(Forecaster& f, int day, double y) {
-  f.observe(day, std::span<const double>(&y, 1));
-}
+using forecast_test::observe_one;
+using forecast_test::predict_one;
 
 TEST_CASE("holt_winters reproduces statsmodels ExponentialSmoothing fitted values and forecasts",
           "[policies][forecast]") {

@@ -6,6 +6,7 @@
 #include <catch2/catch.hpp>
 #include <limits>
 
+#include "policies/forecast/forecast_fixture.test.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "tests/fixture.hpp"
 
@@ -29,15 +30,8 @@ policies:
                      days, forecast);
 }
 
-DemandForecast predict_one(const Forecaster& f, int day) {
-  DemandForecast out;
-  f.predict(day, std::span<DemandForecast>(&out, 1));
-  return out;
-}
-
-void observe_one(Forecaster& f, int day, double y) {
-  f.observe(day, std::span<const double>(&y, 1));
-}
+using forecast_test::observe_one;
+using forecast_test::predict_one;
 
 /// Builds the scenario's forecast for store 0 and runs `body` on it.
 template <class Body>

@@ -7,6 +7,7 @@
 #include <catch2/catch.hpp>
 #include <limits>
 
+#include "policies/forecast/forecast_fixture.test.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "tests/fixture.hpp"
 
@@ -30,15 +31,8 @@ policies:
                      forecast);
 }
 
-DemandForecast predict_one(const Forecaster& f, int day) {
-  DemandForecast out;
-  f.predict(day, std::span<DemandForecast>(&out, 1));
-  return out;
-}
-
-void observe_one(Forecaster& f, int day, double y) {
-  f.observe(day, std::span<const double>(&y, 1));
-}
+using forecast_test::observe_one;
+using forecast_test::predict_one;
 
 template <class Body>
 void with_forecaster(const std::string& forecast, Body body) {

@@ -16,15 +16,7 @@
 namespace larder {
 namespace {
 
-using boost::math::policies::discrete_quantile;
-using boost::math::policies::integer_round_up;
-using boost::math::policies::policy;
-/// Smallest k with F(k) >= p (checks.md 1.6: Boost's default rounds outwards).
-int poisson_quantile(double mean, double p) {
-  const boost::math::poisson_distribution<double, policy<discrete_quantile<integer_round_up>>> d(
-      mean);
-  return static_cast<int>(boost::math::quantile(d, p));
-}
+using qty_test::poisson_quantile;
 
 std::string one_item(const std::string& item, const std::string& quantity) {
   return fmt::format(R"(format: 1

@@ -2,6 +2,7 @@
 // Test helpers for policy parts: a scenario from YAML, one policy's rule and adjusters built
 // through the registry (so parameters are read as in a run), and the diagnostics of a build.
 
+#include <boost/math/distributions/poisson.hpp>
 #include <memory>
 #include <stdexcept>
 #include <string>
@@ -12,6 +13,15 @@
 #include "sim/scenario/load_scenario.hpp"
 
 namespace larder::qty_test {
+
+/// Smallest k with F(k) >= p for Poisson(mean), from Boost.Math with integer_round_up
+/// (checks.md 1.6: Boost's default discrete quantile rounds outwards).
+inline int poisson_quantile(double mean, double p) {
+  using namespace boost::math::policies;
+  const boost::math::poisson_distribution<double, policy<discrete_quantile<integer_round_up>>> d(
+      mean);
+  return static_cast<int>(boost::math::quantile(d, p));
+}
 
 /// The diagnostics of parsing `yaml` (labelled `file`) and building its policies.
 inline std::string build_problems(const std::string& yaml, const std::string& file = "p.yaml") {
