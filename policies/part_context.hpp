@@ -13,6 +13,9 @@ class DemandModel;
 struct PartContext {
   Params& params;
   const Scenario& scenario;
+  /// The policy has `observe: intraday` (sales by hour and sell-out times in its observations),
+  /// so parts that need intraday detail can refuse to be created without it.
+  bool observe_intraday = false;
 };
 
 /// Run context of one store: parts build their per-store state from it.

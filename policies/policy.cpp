@@ -11,7 +11,8 @@ namespace {
 template <class Method>
 std::unique_ptr<Method> create_part(const Catalogue<Method>& catalogue, const PartSpec& spec,
                                     const char* kind, const char* name_key,
-                                    const Scenario& scenario, Diagnostics& diag) {
+                                    const Scenario& scenario, bool observe_intraday,
+                                    Diagnostics& diag) {
   const PartFactory<Method>* factory = catalogue.find(spec.method);
   if (factory == nullptr) {
     diag.error(spec.where, fmt::format("{}: unknown {} '{}'", spec.path, kind, spec.method),
@@ -20,7 +21,7 @@ std::unique_ptr<Method> create_part(const Catalogue<Method>& catalogue, const Pa
   }
   Params params(spec.params, spec.path, scenario.file, diag);
   params.has(name_key);
-  PartContext ctx{params, scenario};
+  PartContext ctx{params, scenario, observe_intraday};
   auto part = factory->create(ctx);
   params.finish();
   return part;
@@ -34,15 +35,15 @@ std::vector<Policy> build_policies(const Scenario& scenario, Diagnostics& diag) 
   for (const PolicySpec& spec : scenario.policies) {
     Policy p;
     p.name = spec.name;
-    p.forecast =
-        create_part(reg.forecasts, spec.forecast, "forecast method", "method", scenario, diag);
+    p.forecast = create_part(reg.forecasts, spec.forecast, "forecast method", "method", scenario,
+                             spec.observe_intraday, diag);
     p.censoring = create_part(reg.censorings, spec.censoring, "censoring treatment", "method",
-                              scenario, diag);
-    p.quantity =
-        create_part(reg.quantities, spec.quantity, "quantity rule", "rule", scenario, diag);
+                              scenario, spec.observe_intraday, diag);
+    p.quantity = create_part(reg.quantities, spec.quantity, "quantity rule", "rule", scenario,
+                             spec.observe_intraday, diag);
     for (const PartSpec& a : spec.adjustments) {
-      p.adjustments.push_back(
-          create_part(reg.adjustments, a, "adjustment", "method", scenario, diag));
+      p.adjustments.push_back(create_part(reg.adjustments, a, "adjustment", "method", scenario,
+                                          spec.observe_intraday, diag));
     }
     out.push_back(std::move(p));
   }

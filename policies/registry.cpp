@@ -14,6 +14,7 @@ PolicyRegistry build_registry() {
   register_ignore(r);
   register_drop(r);
   register_normal_tail(r);
+  register_intraday(r);
   register_product_limit(r);
   register_fixed(r);
   register_base_stock(r);

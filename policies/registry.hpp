@@ -70,6 +70,7 @@ void register_demand_chasing(PolicyRegistry& r);
 void register_ignore(PolicyRegistry& r);
 void register_drop(PolicyRegistry& r);
 void register_normal_tail(PolicyRegistry& r);
+void register_intraday(PolicyRegistry& r);
 void register_product_limit(PolicyRegistry& r);
 void register_fixed(PolicyRegistry& r);
 void register_base_stock(PolicyRegistry& r);

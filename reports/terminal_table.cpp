@@ -13,10 +13,14 @@ namespace larder {
 
 namespace {
 
+// Shown when the run reports them (substitution and discount metrics only when the scenario
+// has those features; see applicable_metrics).
 constexpr std::array kTableMetrics = {
-    Metric::waste_units, Metric::waste_share, Metric::in_stock_at_close, Metric::no_stockout_share,
-    Metric::fill_rate,   Metric::lost_units,  Metric::sold_units,        Metric::revenue,
-    Metric::profit,      Metric::waste_kg,    Metric::co2e_kg,
+    Metric::waste_units,       Metric::waste_share, Metric::in_stock_at_close,
+    Metric::no_stockout_share, Metric::fill_rate,   Metric::served_share,
+    Metric::lost_units,        Metric::sold_units,  Metric::discounted_units,
+    Metric::revenue,           Metric::profit,      Metric::waste_kg,
+    Metric::co2e_kg,
 };
 
 constexpr std::string_view kGap = "  ";

@@ -141,6 +141,34 @@ TEST_CASE("larder check validates and summarises", "[cli]") {
   CHECK(o.out.find("estimate") != std::string::npos);
 }
 
+TEST_CASE("every worked scenario in scenarios/ is valid", "[cli]") {
+  int n = 0;
+  for (const auto& entry : fs::directory_iterator(fs::path(LARDER_SOURCE_DIR) / "scenarios")) {
+    if (entry.path().extension() != ".yaml") continue;
+    const Outcome o = larder(fmt::format("check {}", entry.path().string()));
+    INFO(entry.path() << "\n" << o.err);
+    CHECK(o.code == 0);
+    ++n;
+  }
+  CHECK(n >= 3);
+}
+
+TEST_CASE("a run with substitution writes substitution.csv", "[cli]") {
+  const fs::path out = scratch("leftovers-out");
+  const Outcome o =
+      larder(fmt::format("run {}/scenarios/leftovers.yaml --replications 2 --out {} "
+                         "--quiet --format json",
+                         LARDER_SOURCE_DIR, out.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  const auto rows = lines(slurp(out / "substitution.csv"));
+  REQUIRE(rows.size() == 1 + 4 * 2);  // header, 4 policies x 2 pairs
+  CHECK(rows[0] == "policy,from_item,to_item,mean,stderr,ci_low,ci_high,replications");
+  CHECK(rows[1].rfind("newsvendor,sourdough,rye,", 0) == 0);
+  CHECK(slurp(out / "metrics.csv").find(",served_share,") != std::string::npos);
+  CHECK(slurp(out / "metrics.csv").find(",discount_revenue,") != std::string::npos);
+}
+
 TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
   std::string text = kSmall;
   text.replace(text.find("shelf_life_days: 2"), 18, "shelf_life_days: 0");

@@ -14,6 +14,7 @@
 
 #include <algorithm>
 
+#include "policies/quantity/critical_fractile.hpp"
 #include "policies/quantity/fractile_rule.hpp"
 #include "policies/quantity/item_values.hpp"
 #include "policies/registry.hpp"
@@ -21,8 +22,8 @@
 namespace larder {
 
 double leftover_aversion_ratio(const Item& item, double penalty, double leftover_cost,
-                               double stockout_cost) {
-  const double s = item.leftovers == Leftovers::salvage ? item.salvage_value : 0.0;
+                               double stockout_cost, double discount_take_rate) {
+  const double s = leftover_recovery(item, discount_take_rate);
   const double under = item.price - item.unit_cost + penalty + stockout_cost;
   const double over = item.unit_cost - s + leftover_cost;
   if (under <= 0.0) return 0.0;
@@ -47,7 +48,8 @@ void register_leftover_aversion(PolicyRegistry& r) {
          for (size_t i = 0; i < ctx.scenario.items.size(); ++i) {
            const Item& item = ctx.scenario.items[i];
            const double cr = leftover_aversion_ratio(item, penalty.value_or(item.stockout_penalty),
-                                                     (*cost)[i], stockout ? (*stockout)[i] : 0.0);
+                                                     (*cost)[i], stockout ? (*stockout)[i] : 0.0,
+                                                     ctx.scenario.discount_take_rate);
            if (cr >= 1.0) {
              ctx.params.error("cost",
                               fmt::format("{}: item '{}' has a ratio of 1 (its leftovers cost "

@@ -2,18 +2,79 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
+#include "sim/engine/customer_split.hpp"
 #include "sim/engine/demand_shocks.hpp"
+#include "sim/engine/price_tiers.hpp"
 #include "sim/random/stream.hpp"
+#include "sim/scenario/intraday_profile.hpp"
 #include "sim/stats/binomial.hpp"
 #include "sim/stats/normal.hpp"
 
 namespace larder {
 
+namespace {
+
+/// The stock of one item during a detailed day, by price tier.
+struct Pools {
+  int full = 0;      ///< full-price units on the shelf
+  int pending = 0;   ///< full-price units sold but not yet taken from the shelf by age
+  int markdown = 0;  ///< last-day units marked down
+  int next_day = 0;  ///< yesterday's leftovers on their discounted extra day
+  int sold_markdown = 0;
+  int sold_next_day = 0;
+  int primary = 0;     ///< primary customers served by the item
+  int substitute = 0;  ///< units sold to substitute customers
+  int bargain = 0;     ///< units sold to bargain-only customers
+  int lost = 0;        ///< primary customers who left without buying
+  int own_start = 0;   ///< this bucket: own units (full price and marked down) at its start
+  int unserved = 0;    ///< this bucket: primary customers who found the item out
+  int arrivals = 0;    ///< this bucket: customers of any kind
+  float sellout = std::numeric_limits<float>::quiet_NaN();
+
+  int discounted() const { return markdown + next_day; }
+  int own() const { return full + markdown; }
+  /// Takes `n` discounted units, next-day units first (the oldest, and the cheapest).
+  void take_discounted(int n) {
+    const int a = std::min(n, next_day);
+    next_day -= a;
+    sold_next_day += a;
+    markdown -= n - a;
+    sold_markdown += n - a;
+  }
+  /// Serves `prefer_discounted` and `prefer_full` customers; returns the units sold.
+  int serve(int prefer_discounted, int prefer_full) {
+    const TierTake t = take_tiers(prefer_discounted, prefer_full, full, discounted());
+    full -= t.full;
+    pending += t.full;
+    take_discounted(t.discounted);
+    return t.full + t.discounted;
+  }
+};
+
+void dispose(Observation& o, int units, Leftovers how) {
+  switch (how) {
+    case Leftovers::salvage:
+      o.salvaged += units;
+      break;
+    case Leftovers::donate:
+      o.donated += units;
+      break;
+    default:
+      o.wasted += units;
+      break;
+  }
+}
+
+}  // namespace
+
 /// The state of one policy at this store.
 struct StoreRun::Lane {
-  Lane(const Policy& p, const StoreView& view, std::span<const int> life, int items, int lead)
-      : forecaster(p.forecast->make(view)),
+  Lane(const Policy& p, const StoreView& view, std::span<const int> life, int items, int lead,
+       bool observes_intraday)
+      : observe_intraday(observes_intraday),
+        forecaster(p.forecast->make(view)),
         censoring(p.censoring->make(view)),
         rule(p.quantity->make(view)),
         shelf(life),
@@ -32,6 +93,7 @@ struct StoreRun::Lane {
     for (const auto& a : p.adjustments) adjusters.push_back(a->make(view));
   }
 
+  bool observe_intraday;  ///< the policy sees sell-out times
   std::unique_ptr<Forecaster> forecaster;
   std::unique_ptr<CensoringState> censoring;
   std::unique_ptr<OrderRule> rule;
@@ -43,6 +105,12 @@ struct StoreRun::Lane {
   std::vector<Tally> tally;                 ///< scored-day counts
   std::vector<double> goodwill;             ///< per item, 1 = no erosion (model.md, goodwill)
   std::vector<int> demand;  ///< per item, when goodwill makes demand policy-specific
+  // Detailed path only.
+  std::vector<std::int32_t> next_day;     ///< per item: units on their discounted extra day
+  std::vector<std::int64_t> substituted;  ///< per substitution pair: scored units sold
+  std::vector<int> acceptors;             ///< [item * buckets + h] when goodwill is on
+  std::vector<int> others;
+  std::vector<Pools> pools;  ///< per item, today's stock by tier
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
@@ -109,16 +177,111 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
     persistence_log_.assign(static_cast<size_t>(items_ * shocks.persistence_lag), 0.0);
   }
   demand_.assign(static_cast<size_t>(items_), 0);
-  picking_u_.assign(static_cast<size_t>(items_), 0.0);
-  for (const Policy& p : setup.policies) {
-    lanes_.push_back(std::make_unique<Lane>(p, view_, shelf_life_, items_, lead_time_));
+  picking_u_.assign(static_cast<size_t>(items_) * 2, 0.0);
+  setup_detail();
+  for (size_t k = 0; k < setup.policies.size(); ++k) {
+    const bool observe = k < sc.policies.size() && sc.policies[k].observe_intraday;
+    lanes_.push_back(std::make_unique<Lane>(setup.policies[k], view_, shelf_life_, items_,
+                                            lead_time_, observe && hourly_));
+    Lane& lane = *lanes_.back();
+    if (!detailed_) continue;
+    lane.next_day.assign(static_cast<size_t>(items_), 0);
+    lane.pools.assign(static_cast<size_t>(items_), Pools{});
+    lane.substituted.assign(pairs_.size(), 0);
+    if (goodwill_) {
+      lane.acceptors.assign(static_cast<size_t>(items_ * buckets_), 0);
+      lane.others.assign(static_cast<size_t>(items_ * buckets_), 0);
+    }
   }
+}
+
+void StoreRun::setup_detail() {
+  const Scenario& sc = setup_.scenario;
+  bool needs_hours = setup_.detail == DayDetail::hourly;
+  bool needs_tiers = setup_.detail == DayDetail::one_bucket;
+  for (const Item& it : sc.items) {
+    needs_hours = needs_hours || !it.substitutes.empty() || it.markdown.has_value() ||
+                  (it.next_day && it.next_day->bargain_demand > 0.0);
+    needs_tiers = needs_tiers || it.next_day.has_value();
+  }
+  for (const PolicySpec& p : sc.policies) needs_hours = needs_hours || p.observe_intraday;
+  hourly_ = needs_hours;
+  detailed_ = needs_hours || needs_tiers;
+  if (!detailed_) return;
+  const int h_count = hourly_ ? sc.hours() : 1;
+  buckets_ = h_count;
+  const size_t hb = static_cast<size_t>(h_count);
+  for (int i = 0; i < items_; ++i) {
+    const Item& it = sc.items[static_cast<size_t>(i)];
+    ItemRuntime& rt = runtime_[static_cast<size_t>(i)];
+    std::vector<double> shares =
+        hourly_ ? intraday_shares(it, sc.calendar) : std::vector<double>{1.0};
+    hour_plans_.push_back(plan_split(shares, true));
+    rt.tiers = it.next_day.has_value() || it.markdown.has_value();
+    if (it.markdown && hourly_) rt.markdown_bucket = it.markdown->from_hour - sc.calendar.open_hour;
+    // Bargain-only customers arrive like the item's customers, in the hours a discount is shown.
+    std::vector<double> bargain(hb, 0.0);
+    for (size_t h = 0; h < hb; ++h) {
+      double w = it.next_day ? it.next_day->bargain_demand : 0.0;
+      if (rt.markdown_bucket >= 0 && static_cast<int>(h) >= rt.markdown_bucket) {
+        w += it.markdown->uplift;
+      }
+      bargain[h] = shares[h] * w;
+      rt.bargain_rate += bargain[h];
+    }
+    for (double& b : bargain) b = rt.bargain_rate > 0.0 ? b / rt.bargain_rate : 1.0 / h_count;
+    bargain_plans_.push_back(plan_split(bargain, true));
+    // Daily intraday uniforms: [split of acceptors] [split of the others] [bargain count]
+    // [split of bargain customers]. The acceptor count has its own stream, so that it is the
+    // same draw whatever the number of buckets.
+    rt.intraday_u = static_cast<int>(intraday_u_.size());
+    rt.intraday_n = (rt.tiers ? 2 : 1) * (h_count - 1) + (rt.bargain_rate > 0.0 ? h_count : 0);
+    intraday_u_.resize(intraday_u_.size() + static_cast<size_t>(rt.intraday_n), 0.0);
+    const auto key = [&](Purpose p) {
+      return StreamKey{setup_.seed, static_cast<std::uint32_t>(replication_),
+                       static_cast<std::uint32_t>(store_), static_cast<std::uint32_t>(i), p};
+    };
+    intraday_streams_.push_back(make_stream(key(Purpose::intraday)));
+    if (rt.tiers) {
+      rt.choice = static_cast<int>(choice_streams_.size());
+      choice_streams_.push_back(make_stream(key(Purpose::tier_choice)));
+    }
+    substitution_streams_.push_back(make_stream(key(Purpose::substitution)));
+    rt.pairs_begin = static_cast<int>(pairs_.size());
+    std::vector<double> sub_shares;
+    for (const Substitute& sub : it.substitutes) {
+      pairs_.push_back({i, sub.item, sub.share});
+      sub_shares.push_back(sub.share);
+    }
+    rt.pairs_end = static_cast<int>(pairs_.size());
+    substitute_plans_.push_back(plan_split(sub_shares, false));
+    substitute_split_.resize(std::max(substitute_split_.size(), sub_shares.size()));
+  }
+  substitution_u_.assign(pairs_.size() * hb, 0.0);
+  choice_u_.assign(choice_streams_.size(), 0.0);
+  acceptors_.assign(static_cast<size_t>(items_) * hb, 0);
+  others_.assign(static_cast<size_t>(items_) * hb, 0);
+  bargain_.assign(static_cast<size_t>(items_) * hb, 0);
 }
 
 StoreRun::~StoreRun() = default;
 
 std::span<const Tally> StoreRun::tallies(int policy) const {
   return lanes_[static_cast<size_t>(policy)]->tally;
+}
+
+std::span<const std::int64_t> StoreRun::substitutions(int policy) const {
+  return lanes_[static_cast<size_t>(policy)]->substituted;
+}
+
+std::span<const Observation> StoreRun::observations(int policy) const {
+  return lanes_[static_cast<size_t>(policy)]->observed;
+}
+
+int StoreRun::units_on_hand(int policy, int item) const {
+  const Lane& lane = *lanes_[static_cast<size_t>(policy)];
+  const size_t i = static_cast<size_t>(item);
+  return lane.shelf.total(item) + (lane.next_day.empty() ? 0 : lane.next_day[i]);
 }
 
 std::size_t StoreRun::bytes_per_item_and_policy() const {
@@ -157,8 +320,13 @@ void StoreRun::run_day(int day) {
   }
   for (size_t i = 0; i < runtime_.size(); ++i) {
     const int k = runtime_[i].picking;
-    if (k >= 0) picking_u_[i] = to_unit(picking_streams_[static_cast<size_t>(k)]());
+    if (k < 0) continue;
+    pcg32& g = picking_streams_[static_cast<size_t>(k)];
+    picking_u_[2 * i] = to_unit(g());
+    // A marked-down item splits its full-price sales before and after the markdown hour.
+    if (runtime_[i].markdown_bucket >= 0) picking_u_[2 * i + 1] = to_unit(g());
   }
+  if (detailed_) draw_detail(day, open);
   for (auto& lane : lanes_) run_lane(*lane, day, open, scored);
 }
 
@@ -203,6 +371,12 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
     }
     demands = lane.demand.data();
   }
+  if (detailed_) {
+    run_lane_detailed(lane, day, open, scored, demands);
+    learn(lane, day, open);
+    place_orders(lane, day);
+    return;
+  }
   for (size_t i = 0; i < demand_.size(); ++i) {
     const int item = static_cast<int>(i);
     const ItemRuntime& rt = runtime_[i];
@@ -225,7 +399,7 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
       lane.shelf.receive(item, o.delivered);
       stock = lane.shelf.total(item);
       o.sold = std::min(demand, stock);
-      const int oldest = rt.picking >= 0 ? binomial_inverse(picking_u_[i], o.sold, fifo)
+      const int oldest = rt.picking >= 0 ? binomial_inverse(picking_u_[2 * i], o.sold, fifo)
                                          : (fifo >= 1.0 ? o.sold : 0);
       lane.shelf.take(item, o.sold, oldest);
       leaving = lane.shelf.expire(item);  // 5. End of life.
@@ -257,7 +431,7 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
     if (scored) {
       Tally& t = lane.tally[i];
       t.demand += demand;
-      t.sold += o.sold;
+      t.served_by_item += o.sold;
       t.lost += demand - o.sold;
       t.wasted += o.wasted;
       t.salvaged += o.salvaged;
@@ -266,11 +440,215 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
       t.open_days += open;
       t.in_stock_days += o.leftover > 0 && open;
       t.no_stockout_days += demand <= stock && open;
-      t.served_by_item += o.sold;
     }
   }
   learn(lane, day, open);
   place_orders(lane, day);
+}
+
+void StoreRun::draw_detail(int day, bool open) {
+  const size_t hb = static_cast<size_t>(buckets_);
+  for (size_t i = 0; i < runtime_.size(); ++i) {
+    const ItemRuntime& rt = runtime_[i];
+    double* u = intraday_u_.data() + rt.intraday_u;
+    for (int k = 0; k < rt.intraday_n; ++k) u[k] = to_unit(intraday_streams_[i]());
+    if (rt.choice >= 0) {
+      const size_t c = static_cast<size_t>(rt.choice);
+      choice_u_[c] = to_unit(choice_streams_[c]());
+    }
+    double* us = substitution_u_.data() + static_cast<size_t>(rt.pairs_begin) * hb;
+    const size_t n_us = static_cast<size_t>(rt.pairs_end - rt.pairs_begin) * hb;
+    for (size_t k = 0; k < n_us; ++k) us[k] = to_unit(substitution_streams_[i]());
+    if (!goodwill_)
+      split_customers(static_cast<int>(i), demand_[i], &acceptors_[i * hb], &others_[i * hb]);
+    if (rt.bargain_rate > 0.0) {
+      // Bargain-only customers: Poisson with the day's mean (before goodwill) times the rate,
+      // spread over the hours a discount is shown.
+      const double m = !open      ? 0.0
+                       : dynamic_ ? mean_[i]
+                                  : setup_.demand.mean(store_, static_cast<int>(i), day);
+      const double* ub = u + rt.intraday_n - buckets_;
+      const int n = m > 0.0 ? CountLaw::make(DemandFamily::poisson, m * rt.bargain_rate,
+                                             std::nullopt, std::nullopt)
+                                  .quantile(ub[0])
+                            : 0;
+      split_count(n, bargain_plans_[i], {ub + 1, hb - 1}, {&bargain_[i * hb], hb});
+    }
+  }
+}
+
+void StoreRun::split_customers(int item, int demand, int* acceptors, int* others) const {
+  const ItemRuntime& rt = runtime_[static_cast<size_t>(item)];
+  const size_t hb = static_cast<size_t>(buckets_);
+  const SplitPlan& plan = hour_plans_[static_cast<size_t>(item)];
+  const double* u = intraday_u_.data() + rt.intraday_u;
+  if (!rt.tiers) {
+    std::fill(acceptors, acceptors + hb, 0);
+    split_count(demand, plan, {u, hb - 1}, {others, hb});
+    return;
+  }
+  // Each customer would take a discounted unit with probability take_rate: split the day's
+  // customers into acceptors and others, then each group over the hours.
+  const int a = binomial_inverse(choice_u_[static_cast<size_t>(rt.choice)], demand,
+                                 setup_.scenario.discount_take_rate);
+  split_count(a, plan, {u, hb - 1}, {acceptors, hb});
+  split_count(demand - a, plan, {u + hb - 1, hb - 1}, {others, hb});
+}
+
+void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, const int* demands) {
+  const Scenario& sc = setup_.scenario;
+  const size_t hb = static_cast<size_t>(buckets_);
+  const size_t n_items = static_cast<size_t>(items_);
+  const size_t slot = static_cast<size_t>(day % lead_time_);
+  const size_t lead = static_cast<size_t>(lead_time_);
+  const double fifo = sc.fifo_share;
+  const int* acceptors = acceptors_.data();
+  const int* others = others_.data();
+  if (goodwill_) {
+    for (int i = 0; i < items_; ++i) {
+      const size_t off = static_cast<size_t>(i) * hb;
+      split_customers(i, demands[i], &lane.acceptors[off], &lane.others[off]);
+    }
+    acceptors = lane.acceptors.data();
+    others = lane.others.data();
+  }
+  // Full-price sales are taken from the shelf by age in one Binomial split per period in which
+  // the full-price units do not change (exact: the two ends only meet when the shelf runs out).
+  const auto settle = [&](int item, Pools& p, int u_index) {
+    const size_t ii = static_cast<size_t>(item);
+    const int oldest =
+        runtime_[ii].picking >= 0
+            ? binomial_inverse(picking_u_[2 * ii + static_cast<size_t>(u_index)], p.pending, fifo)
+            : (fifo >= 1.0 ? p.pending : 0);
+    lane.shelf.take(item, p.pending, oldest);
+    p.pending = 0;
+  };
+  std::vector<Pools>& pools = lane.pools;
+  std::vector<Observation>& obs = lane.observed;
+  // 1. Morning delivery.
+  for (size_t i = 0; i < n_items; ++i) {
+    Observation& o = obs[i];
+    o = Observation{};
+    o.open = open;
+    std::int32_t& due = lane.pipeline[i * lead + slot];
+    o.delivered = due;
+    due = 0;
+    lane.shelf.receive(static_cast<int>(i), o.delivered);
+    pools[i] = Pools{};
+    pools[i].full = lane.shelf.total(static_cast<int>(i));
+    pools[i].next_day = lane.next_day[i];
+  }
+  // 2-3. Customers, bucket by bucket: primary customers, then substitute customers, then
+  // bargain-only customers.
+  for (size_t h = 0; h < hb; ++h) {
+    for (size_t i = 0; i < n_items; ++i) {
+      Pools& p = pools[i];
+      if (runtime_[i].markdown_bucket == static_cast<int>(h)) {
+        settle(static_cast<int>(i), p, 0);
+        p.markdown = lane.shelf.expire(static_cast<int>(i));  // units on their last day
+        p.full = lane.shelf.total(static_cast<int>(i));
+      }
+      p.own_start = p.own();
+      if (h == 0 && p.own_start == 0) p.sellout = 0.0f;  // nothing to sell at opening
+      const int a = acceptors[i * hb + h];
+      const int b = others[i * hb + h];
+      const int sold = p.serve(a, b);
+      p.primary += sold;
+      p.unserved = a + b - sold;
+      p.arrivals = a + b;
+    }
+    for (size_t i = 0; i < n_items; ++i) {
+      const ItemRuntime& rt = runtime_[i];
+      Pools& p = pools[i];
+      if (rt.pairs_begin == rt.pairs_end) {
+        p.lost += p.unserved;
+        continue;
+      }
+      const size_t n_pairs = static_cast<size_t>(rt.pairs_end - rt.pairs_begin);
+      const double* u =
+          substitution_u_.data() + static_cast<size_t>(rt.pairs_begin) * hb + h * n_pairs;
+      const std::span<int> went{substitute_split_.data(), n_pairs};
+      const int left = split_count(p.unserved, substitute_plans_[i], {u, n_pairs}, went);
+      for (size_t j = 0; j < n_pairs; ++j) {
+        const size_t k = static_cast<size_t>(rt.pairs_begin) + j;
+        const int x = went[j];
+        // Substitute customers take a full-price unit when there is one.
+        Pools& to = pools[static_cast<size_t>(pairs_[k].to)];
+        const int served = to.serve(0, x);
+        to.substitute += served;
+        to.arrivals += x;
+        p.lost += x - served;
+        if (scored) lane.substituted[k] += served;
+      }
+      p.lost += left;
+    }
+    for (size_t i = 0; i < n_items; ++i) {
+      if (runtime_[i].bargain_rate <= 0.0) continue;
+      Pools& p = pools[i];
+      const int want = bargain_[i * hb + h];
+      const int got = std::min(want, p.discounted());
+      p.take_discounted(got);
+      p.bargain += got;
+      p.arrivals += want;
+    }
+    if (lane.observe_intraday) {
+      // The sell-out time: the k-th of n customers arriving at a constant rate within the hour
+      // comes on average k / (n + 1) of the way through it.
+      for (size_t i = 0; i < n_items; ++i) {
+        Pools& p = pools[i];
+        if (p.own() > 0 || !std::isnan(p.sellout)) continue;
+        p.sellout = static_cast<float>(static_cast<double>(h) + p.own_start / (p.arrivals + 1.0));
+      }
+    }
+  }
+  // 4-5. Close and end of life.
+  const Goodwill& g = sc.goodwill;
+  for (size_t i = 0; i < n_items; ++i) {
+    const ItemRuntime& rt = runtime_[i];
+    const int item = static_cast<int>(i);
+    Pools& p = pools[i];
+    Observation& o = obs[i];
+    settle(item, p, rt.markdown_bucket >= 0 ? 1 : 0);
+    const int own_left = lane.shelf.total(item) + p.markdown;
+    const int leaving = lane.shelf.expire(item) + p.markdown;
+    lane.shelf.age(item);
+    o.sold = p.primary + p.substitute + p.bargain;
+    o.sold_discounted = p.sold_next_day + p.sold_markdown;
+    o.leftover = own_left;
+    o.sold_out = open && own_left == 0;
+    if (o.sold_out && lane.observe_intraday) o.sellout_hour = p.sellout;
+    const Item& it = sc.items[i];
+    if (it.next_day) {
+      dispose(o, p.next_day, it.next_day->fallback);  // the extra day is over
+      lane.next_day[i] = leaving;
+    } else {
+      dispose(o, leaving, rt.leftovers);
+    }
+    const int demand = demands[i];
+    if (goodwill_) {
+      double& gw = lane.goodwill[i];
+      if (demand > 0)
+        gw *= 1.0 - g.sensitivity * (demand - p.primary) / static_cast<double>(demand);
+      gw = 1.0 - (1.0 - gw) * std::exp2(-1.0 / g.half_life_days);
+    }
+    if (scored) {
+      Tally& t = lane.tally[i];
+      t.demand += demand;
+      t.served_by_item += p.primary;
+      t.substitute += p.substitute;
+      t.bargain += p.bargain;
+      t.sold_next_day += p.sold_next_day;
+      t.sold_markdown += p.sold_markdown;
+      t.lost += p.lost;
+      t.wasted += o.wasted;
+      t.salvaged += o.salvaged;
+      t.donated += o.donated;
+      t.delivered += o.delivered;
+      t.open_days += open;
+      t.in_stock_days += own_left > 0 && open;
+      t.no_stockout_days += p.primary == demand && open;
+    }
+  }
 }
 
 void StoreRun::forecast_window(Lane& lane, int arrival) {

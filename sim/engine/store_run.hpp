@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "policies/policy.hpp"
+#include "sim/engine/customer_split.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/shelf.hpp"
 #include "sim/engine/tally.hpp"
@@ -15,12 +16,20 @@
 
 namespace larder {
 
+/// How finely a day is simulated (model.md, step 2). `automatic` takes hourly buckets only when
+/// a feature depends on the time of day (substitution, evening markdown, bargain-only customers,
+/// `observe: intraday`), one bucket when an item has a discounted tier, and the plain daily loop
+/// otherwise. The other values force a finer path (tests and benchmarks use them to show the
+/// paths agree); a scenario that needs hours always gets them.
+enum class DayDetail : unsigned char { automatic, one_bucket, hourly };
+
 /// Immutable inputs shared by every store run of a simulation.
 struct SimSetup {
   const Scenario& scenario;
   const DemandModel& demand;
   std::span<const Policy> policies;
   std::uint64_t seed = 0;
+  DayDetail detail = DayDetail::automatic;
 };
 
 class StoreRun {
@@ -34,6 +43,15 @@ class StoreRun {
   void run_days(int begin, int end);
   /// Scored-day counts of one policy, one per item.
   std::span<const Tally> tallies(int policy) const;
+  /// Scored-day units sold to substitute customers of one policy, one per substitution pair in
+  /// the order of `substitution_pairs`.
+  std::span<const std::int64_t> substitutions(int policy) const;
+  /// Today's observations of one policy, one per item (after the day has run).
+  std::span<const Observation> observations(int policy) const;
+  /// Units of an item on hand after the close under one policy: the shelf and the next-day tier.
+  int units_on_hand(int policy, int item) const;
+  /// Hourly buckets per day (1 on the one-bucket and plain paths).
+  int buckets() const { return buckets_; }
   /// Bytes of state per store-item and policy (shelf, pipeline, observation, tally, parts).
   std::size_t bytes_per_item_and_policy() const;
 
@@ -41,9 +59,18 @@ class StoreRun {
   struct Lane;
   void run_day(int day);
   void draw_dynamic_demand(int day, bool open);
+  /// Chooses the day's detail (DayDetail) and prepares the detailed path's tables and streams.
+  void setup_detail();
   /// Sets each item's demand forecast over the days a delivery arriving on `arrival` serves.
   void forecast_window(Lane& lane, int arrival);
   void run_lane(Lane& lane, int day, bool open, bool scored);
+  /// Draws the day's intraday, substitution and bargain uniforms (shared by every lane).
+  void draw_detail(int day, bool open);
+  /// Splits an item's customers over buckets and tiers: acceptors of a discounted unit and the
+  /// others, `buckets_` each.
+  void split_customers(int item, int demand, int* acceptors, int* others) const;
+  /// The bucketed day of one lane: tiers, substitution, markdown, bargain customers.
+  void run_lane_detailed(Lane& lane, int day, bool open, bool scored, const int* demands);
   void learn(Lane& lane, int day, bool open);
   void place_orders(Lane& lane, int day);
 
@@ -64,6 +91,21 @@ class StoreRun {
     int life;
     Leftovers leftovers;
     int picking;  ///< index into picking_streams_, or -1 when the split is deterministic
+    // Detailed path only.
+    bool tiers = false;         ///< a discounted tier can be on the shelf (next-day or markdown)
+    int markdown_bucket = -1;   ///< bucket from which last-day units are marked down
+    int intraday_u = 0;         ///< offset of the item's daily uniforms in intraday_u_
+    int intraday_n = 0;         ///< intraday uniforms per day
+    int choice = -1;            ///< index into choice_streams_ and choice_u_, -1 without tiers
+    double bargain_rate = 0.0;  ///< bargain-only customers per unit of the day's mean demand
+    int pairs_begin = 0;        ///< the item's substitutes in pairs_
+    int pairs_end = 0;
+  };
+  /// A customer who finds `from` out tries `to` with probability `share`.
+  struct Pair {
+    int from;
+    int to;
+    double share;
   };
   std::vector<ItemRuntime> runtime_;
   std::vector<int> demand_;       ///< today's demand per item (shared unless goodwill is on)
@@ -77,7 +119,26 @@ class StoreRun {
   pcg32 traffic_stream_;
   std::vector<pcg32> persistence_streams_;  ///< one per item when persistence is on
   std::vector<double> persistence_log_;     ///< [item * lag + day % lag]: the AR(1) state
-  std::vector<double> picking_u_;           ///< today's picking uniform per item
+  std::vector<double> picking_u_;           ///< today's picking uniforms, two per item
+  // The detailed path (model.md, steps 2-3 by time bucket).
+  bool detailed_ = false;
+  bool hourly_ = false;                      ///< buckets are the opening hours
+  int buckets_ = 1;                          ///< time buckets per day
+  std::vector<SplitPlan> hour_plans_;        ///< per item: its customers over the buckets
+  std::vector<SplitPlan> bargain_plans_;     ///< per item: bargain-only customers over them
+  std::vector<SplitPlan> substitute_plans_;  ///< per item: its lost customers over substitutes
+  std::vector<int> substitute_split_;        ///< scratch: one bucket's split over substitutes
+  std::vector<Pair> pairs_;                  ///< every substitution pair, by origin item
+  std::vector<pcg32> intraday_streams_;      ///< one per item
+  std::vector<pcg32> substitution_streams_;  ///< one per item
+  std::vector<pcg32> choice_streams_;        ///< one per item with a discounted tier
+  std::vector<double> intraday_u_;           ///< today's intraday uniforms, all items
+  std::vector<double> choice_u_;             ///< today's tier-choice uniform per tiered item
+  /// The item's pairs by bucket: [pairs_begin * buckets + h * pairs + j].
+  std::vector<double> substitution_u_;
+  std::vector<int> acceptors_;  ///< [item * buckets + h], shared unless goodwill
+  std::vector<int> others_;     ///< [item * buckets + h]
+  std::vector<int> bargain_;    ///< [item * buckets + h]: bargain-only customers
   std::vector<std::unique_ptr<Lane>> lanes_;
 };
 

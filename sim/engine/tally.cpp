@@ -6,8 +6,11 @@ namespace larder {
 
 void Tally::add(const Tally& o) {
   demand += o.demand;
-  sold += o.sold;
+  served_by_item += o.served_by_item;
   substitute += o.substitute;
+  bargain += o.bargain;
+  sold_next_day += o.sold_next_day;
+  sold_markdown += o.sold_markdown;
   lost += o.lost;
   wasted += o.wasted;
   salvaged += o.salvaged;
@@ -16,7 +19,6 @@ void Tally::add(const Tally& o) {
   open_days += o.open_days;
   in_stock_days += o.in_stock_days;
   no_stockout_days += o.no_stockout_days;
-  served_by_item += o.served_by_item;
 }
 
 namespace {
@@ -34,8 +36,11 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
     const Item& it = items[i];
     t.add(c);
     const auto d = [](std::int64_t n) { return static_cast<double>(n); };
-    at(v, Metric::revenue) +=
-        d(c.sold + c.substitute) * it.price + d(c.salvaged) * it.salvage_value;
+    const std::int64_t discounted = c.sold_next_day + c.sold_markdown;
+    at(v, Metric::full_price_revenue) += d(c.sold() - discounted) * it.price;
+    if (it.next_day) at(v, Metric::discount_revenue) += d(c.sold_next_day) * it.next_day->price;
+    if (it.markdown) at(v, Metric::discount_revenue) += d(c.sold_markdown) * it.markdown->price;
+    at(v, Metric::salvage_revenue) += d(c.salvaged) * it.salvage_value;
     at(v, Metric::purchase_cost) += d(c.delivered) * it.unit_cost;
     at(v, Metric::disposal_cost) += d(c.wasted) * it.disposal_cost;
     at(v, Metric::penalty_cost) += d(c.lost) * it.stockout_penalty;
@@ -44,7 +49,8 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
     at(v, Metric::co2e_kg) += d(c.wasted) * it.co2e_kg.value_or(0.0);
   }
   at(v, Metric::demand_units) = static_cast<double>(t.demand);
-  at(v, Metric::sold_units) = static_cast<double>(t.sold + t.substitute);
+  at(v, Metric::sold_units) = static_cast<double>(t.sold());
+  at(v, Metric::discounted_units) = static_cast<double>(t.sold_next_day + t.sold_markdown);
   at(v, Metric::substitute_units) = static_cast<double>(t.substitute);
   at(v, Metric::lost_units) = static_cast<double>(t.lost);
   at(v, Metric::waste_units) = static_cast<double>(t.wasted);
@@ -56,6 +62,8 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
   at(v, Metric::no_stockout_share) = ratio(t.no_stockout_days, t.open_days, 1.0);
   at(v, Metric::fill_rate) = ratio(t.served_by_item, t.demand, 1.0);
   at(v, Metric::served_share) = ratio(t.served_by_item + t.substitute, t.demand, 1.0);
+  at(v, Metric::revenue) = at(v, Metric::full_price_revenue) + at(v, Metric::discount_revenue) +
+                           at(v, Metric::salvage_revenue);
   at(v, Metric::profit) = at(v, Metric::revenue) - at(v, Metric::purchase_cost) -
                           at(v, Metric::disposal_cost) - at(v, Metric::penalty_cost);
   return v;

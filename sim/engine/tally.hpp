@@ -13,8 +13,11 @@ namespace larder {
 
 struct Tally {
   std::int64_t demand = 0;            ///< primary customers
-  std::int64_t sold = 0;              ///< units sold at full price
+  std::int64_t served_by_item = 0;    ///< primary customers served by the item itself
   std::int64_t substitute = 0;        ///< units sold to customers whose first choice was out
+  std::int64_t bargain = 0;           ///< units sold to bargain-only customers
+  std::int64_t sold_next_day = 0;     ///< units sold at the next-day price (any customer)
+  std::int64_t sold_markdown = 0;     ///< units sold at the markdown price (any customer)
   std::int64_t lost = 0;              ///< customers who left without buying
   std::int64_t wasted = 0;            ///< units discarded
   std::int64_t salvaged = 0;          ///< units salvaged
@@ -23,9 +26,10 @@ struct Tally {
   std::int64_t open_days = 0;         ///< open store-item-days
   std::int64_t in_stock_days = 0;     ///< open days with a unit left at close
   std::int64_t no_stockout_days = 0;  ///< open days with every primary customer served by the item
-  std::int64_t served_by_item = 0;    ///< primary customers served by the item itself
 
   void add(const Tally& o);
+  /// Units sold to anyone at any price.
+  std::int64_t sold() const { return served_by_item + substitute + bargain; }
 };
 
 /// The metrics of model.md from per-item totals (index = item index in `items`).

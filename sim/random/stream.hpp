@@ -19,6 +19,7 @@ enum class Purpose : std::uint32_t {
   picking = 5,       ///< oldest-versus-freshest split of sales
   substitution = 6,  ///< substitute choice of customers who find the item out
   generation = 7,    ///< generated network attributes (store sizes), replication-independent
+  tier_choice = 8,   ///< how many customers would take a discounted unit (one per day)
 };
 
 inline constexpr std::uint32_t kNoItem = 0xffffffffu;

@@ -15,15 +15,25 @@ namespace larder {
 std::vector<Metric> applicable_metrics(const Scenario& scenario) {
   bool weight = false;
   bool co2e = false;
+  bool substitution = false;
+  bool discount = false;
+  bool salvage = false;
   for (const Item& it : scenario.items) {
     weight = weight || it.weight_kg.has_value();
     co2e = co2e || it.co2e_kg.has_value();
+    substitution = substitution || !it.substitutes.empty();
+    discount = discount || it.next_day.has_value() || it.markdown.has_value();
+    salvage = salvage || it.leftovers == Leftovers::salvage ||
+              (it.next_day && it.next_day->fallback == Leftovers::salvage);
   }
   std::vector<Metric> out;
   for (size_t k = 0; k < kMetricCount; ++k) {
     const Metric m = static_cast<Metric>(k);
-    // Substitution is not modelled yet: its metrics would only repeat sold and fill rate.
-    if (m == Metric::substitute_units || m == Metric::served_share) continue;
+    // Metrics that would only repeat others when their feature is not in the scenario.
+    if ((m == Metric::substitute_units || m == Metric::served_share) && !substitution) continue;
+    if ((m == Metric::discounted_units || m == Metric::discount_revenue) && !discount) continue;
+    if (m == Metric::salvage_revenue && !salvage) continue;
+    if (m == Metric::full_price_revenue && !discount && !salvage) continue;
     if (m == Metric::waste_kg && !weight) continue;
     if (m == Metric::co2e_kg && !co2e) continue;
     out.push_back(m);
@@ -33,8 +43,12 @@ std::vector<Metric> applicable_metrics(const Scenario& scenario) {
 
 namespace {
 
-/// Per-item tallies of every policy for one (replication, store) task.
-using StoreTallies = std::vector<std::vector<Tally>>;
+/// What one (replication, store) task produced, per policy: per-item tallies and units sold
+/// per substitution pair.
+struct StoreTallies {
+  std::vector<std::vector<Tally>> items;
+  std::vector<std::vector<std::int64_t>> substituted;
+};
 
 StoreTallies simulate_store(const SimSetup& setup, int replication, int store) {
   StoreRun run(setup, replication, store);
@@ -42,7 +56,9 @@ StoreTallies simulate_store(const SimSetup& setup, int replication, int store) {
   StoreTallies out;
   for (size_t p = 0; p < setup.policies.size(); ++p) {
     const auto t = run.tallies(static_cast<int>(p));
-    out.emplace_back(t.begin(), t.end());
+    out.items.emplace_back(t.begin(), t.end());
+    const auto s = run.substitutions(static_cast<int>(p));
+    out.substituted.emplace_back(s.begin(), s.end());
   }
   return out;
 }
@@ -65,6 +81,14 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
   result.baseline = scenario.baseline;
   result.metrics = applicable_metrics(scenario);
   result.values.resize(policies.size());
+  result.substituted.resize(policies.size());
+  for (const Item& it : scenario.items) {
+    for (const Substitute& sub : it.substitutes) {
+      result.substitution_pairs.push_back(
+          {it.id, scenario.items[static_cast<size_t>(sub.item)].id});
+    }
+  }
+  const size_t n_pairs = result.substitution_pairs.size();
   RunInfo& info = result.info;
   info.scenario_name = scenario.name;
   info.scenario_file = scenario.file;
@@ -78,7 +102,7 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
   info.threads = threads;
 
   const DemandModel demand(scenario);
-  const SimSetup setup{scenario, demand, policies, scenario.seed};
+  const SimSetup setup{scenario, demand, policies, scenario.seed, options.detail};
 
   // Replications run in batches so memory stays bounded: each batch keeps the per-item tallies
   // of its (replication, store) tasks until they are reduced in a fixed order.
@@ -107,12 +131,17 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
     for (int r = 0; r < n; ++r) {
       for (size_t p = 0; p < policies.size(); ++p) {
         std::vector<Tally> per_item(static_cast<size_t>(items));
+        std::vector<double> per_pair(n_pairs, 0.0);
         for (int s = 0; s < stores; ++s) {
-          const auto& t = slots[static_cast<size_t>(r * stores + s)][p];
+          const StoreTallies& slot = slots[static_cast<size_t>(r * stores + s)];
+          const auto& t = slot.items[p];
           for (int i = 0; i < items; ++i)
             per_item[static_cast<size_t>(i)].add(t[static_cast<size_t>(i)]);
+          const auto& sub = slot.substituted[p];
+          for (size_t k = 0; k < sub.size(); ++k) per_pair[k] += static_cast<double>(sub[k]);
         }
         result.values[p].push_back(compute_metrics(per_item, scenario.items));
+        if (n_pairs > 0) result.substituted[p].push_back(std::move(per_pair));
       }
     }
     done += n;

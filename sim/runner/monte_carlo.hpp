@@ -10,14 +10,16 @@
 #include <vector>
 
 #include "policies/policy.hpp"
+#include "sim/engine/store_run.hpp"
 #include "sim/runner/run_result.hpp"
 
 namespace larder {
 
 struct RunOptions {
-  int replications = 0;       ///< 0 = the scenario's
-  int first_replication = 0;  ///< replication ids run are first, first + 1, ...
-  int threads = 0;            ///< 0 = all cores
+  int replications = 0;                     ///< 0 = the scenario's
+  int first_replication = 0;                ///< replication ids run are first, first + 1, ...
+  int threads = 0;                          ///< 0 = all cores
+  DayDetail detail = DayDetail::automatic;  ///< force a finer day (tests, benchmarks)
   /// Called from the calling thread after each batch of replications (done, total).
   std::function<void(int, int)> progress;
   /// Set to true (e.g. by a signal handler) to stop after the current batch.

@@ -28,6 +28,12 @@ struct RunInfo {
   double seconds = 0.0;  ///< wall time of the simulation
 };
 
+/// Customers of `from` who found it out and bought `to` instead (model.md, step 3).
+struct SubstitutionPair {
+  std::string from;
+  std::string to;
+};
+
 struct RunResult {
   RunInfo info;
   std::vector<std::string> policies;
@@ -35,6 +41,10 @@ struct RunResult {
   std::vector<Metric> metrics;  ///< the metrics that apply (waste_kg only with weights, ...)
   /// values[policy][replication] = every metric of that policy in that replication.
   std::vector<std::vector<MetricVector>> values;
+  /// Every substitution pair of the scenario (empty when there is no substitution).
+  std::vector<SubstitutionPair> substitution_pairs;
+  /// substituted[policy][replication][pair] = units sold to substitute customers (scored days).
+  std::vector<std::vector<std::vector<double>>> substituted;
 
   /// The values of one metric of one policy over replications, in replication order.
   std::vector<double> series(int policy, Metric m) const;

@@ -18,6 +18,7 @@
 #include "sim/scenario/duplicate_keys.hpp"
 #include "sim/scenario/generated_stores.hpp"
 #include "sim/scenario/ids.hpp"
+#include "sim/scenario/intraday_profile.hpp"
 #include "sim/scenario/iso_date.hpp"
 #include "sim/scenario/params.hpp"
 #include "sim/scenario/weekdays.hpp"
@@ -28,7 +29,8 @@ namespace {
 
 constexpr int kMaxReplications = 1000000;
 constexpr int kMaxGeneratedStores = 1000000;
-constexpr std::string_view kNotSupported = "is not supported yet by this version of larder";
+/// Slack for sums of shares written in decimal (0.34 + 0.56 + 0.1 is a little above 1 in binary).
+constexpr double kShareSumSlack = 1e-9;
 
 // ---------------------------------------------------------------------------------------------
 // Small helpers shared by the sections.
@@ -41,13 +43,6 @@ bool written(Params& p, std::string_view key) {
 /// Reports that a required key is missing (at the key when written empty, else at the mapping).
 void report_required(Params& p, std::string_view key, std::string hint = {}) {
   p.diagnostics().error(p.key_location(key), fmt::format("{} is required", p.path_of(key)),
-                        std::move(hint));
-}
-
-/// Reports a key of the spec that this version does not implement (instead of "unknown key").
-void reject_unsupported(Params& p, std::string_view key, std::string hint) {
-  if (!written(p, key)) return;
-  p.diagnostics().error(p.key_location(key), fmt::format("{} {}", p.path_of(key), kNotSupported),
                         std::move(hint));
 }
 
@@ -193,6 +188,12 @@ const Field<T>& pick(const Field<T>& item, const Field<T>& defaults) {
   return item.given ? item : defaults;
 }
 
+/// `demand.intraday` as written: a profile name, or one weight per opening hour.
+struct IntradayDraft {
+  std::string profile = "flat";
+  std::vector<double> weights;
+};
+
 struct DemandDraft {
   bool given = false;
   bool broken = false;  ///< written but not a mapping: its fields are unknown
@@ -202,6 +203,28 @@ struct DemandDraft {
   Field<DemandFamily> family;
   Field<double> cv;
   Field<double> dispersion;
+  Field<IntradayDraft> intraday;
+};
+
+/// `next_day` as written (merged from item_defaults as a whole mapping).
+struct NextDayDraft {
+  Field<double> price;
+  Field<Leftovers> fallback;
+  Field<double> bargain_demand;
+};
+
+/// `markdown` as written (merged from item_defaults as a whole mapping).
+struct MarkdownDraft {
+  Field<int> from_hour;
+  Field<double> price;
+  Field<double> uplift;
+};
+
+/// One `substitutes` entry as written; the id is resolved once every item has been read.
+struct SubstituteRef {
+  std::string id;
+  double share = 0.0;
+  Location where;  ///< of the id
 };
 
 struct ItemDraft {
@@ -209,8 +232,19 @@ struct ItemDraft {
       co2e_kg;
   Field<int> shelf_life_days, pack_size, shelf_capacity;
   Field<Leftovers> leftovers;
+  Field<NextDayDraft> next_day;   ///< value empty when written but not a mapping
+  Field<MarkdownDraft> markdown;  ///< value empty when written but not a mapping
+  std::vector<SubstituteRef> substitutes;
   std::map<std::string, std::string> attributes;
   DemandDraft demand;
+};
+
+/// What the item fields need from the sections read before the items.
+struct ItemContext {
+  int open_hour = 8;
+  int close_hour = 20;
+  bool hours_ok = true;   ///< calendar.hours is valid, so hour rules can be checked against it
+  bool defaults = false;  ///< reading item_defaults rather than an item
 };
 
 Field<double> number_field(Params& p, std::string_view key, Range range) {
@@ -233,7 +267,63 @@ Field<int> integer_field(Params& p, std::string_view key, Range range) {
   return f;
 }
 
-void read_demand_fields(Params& p, DemandDraft& d) {
+/// "1 weight", "3 weights".
+std::string count_of(size_t n, std::string_view noun) {
+  return fmt::format("{} {}{}", n, noun, n == 1 ? "" : "s");
+}
+
+/// Reads `demand.intraday`: a profile name or a list of non-negative weights, one per opening
+/// hour, not all zero.
+std::optional<IntradayDraft> read_intraday(const YAML::Node& node, const std::string& path,
+                                           const ItemContext& ctx, const std::string& file,
+                                           Diagnostics& diag) {
+  const std::vector<std::string> names(kIntradayProfiles.begin(), kIntradayProfiles.end());
+  const Location where = location_of(node, file);
+  if (node.IsScalar()) {
+    const std::string& name = node.Scalar();
+    if (is_intraday_profile(name)) return IntradayDraft{name, {}};
+    const std::string near = closest_name(name, names);
+    diag.error(where,
+               fmt::format("{} must be a profile name ({}) or a list of hourly weights (got {})",
+                           path, join(names), name),
+               near.empty() ? std::string{} : fmt::format("did you mean '{}'?", near));
+    return std::nullopt;
+  }
+  if (!node.IsSequence()) {
+    diag.error(where,
+               fmt::format("{} must be a profile name ({}) or a list of hourly weights such as "
+                           "[1, 2, 1] (got {})",
+                           path, join(names), describe_value(node)));
+    return std::nullopt;
+  }
+  IntradayDraft d;
+  bool ok = true;
+  for (size_t i = 0; i < node.size(); ++i) {
+    const auto w =
+        read_number(node[i], fmt::format("{}[{}]", path, i), Range::at_least(0), file, diag);
+    if (w) d.weights.push_back(*w);
+    ok = ok && w.has_value();
+  }
+  const int hours = ctx.close_hour - ctx.open_hour;
+  if (ctx.hours_ok && static_cast<int>(node.size()) != hours) {
+    diag.error(
+        where,
+        fmt::format("{} gives {} but the calendar has {} opening hours ({}:00 to {}:00)", path,
+                    count_of(node.size(), "weight"), hours, ctx.open_hour, ctx.close_hour),
+        "give one weight per opening hour, from calendar.hours.open to "
+        "calendar.hours.close");
+    return std::nullopt;
+  }
+  if (!ok) return std::nullopt;
+  if (std::all_of(d.weights.begin(), d.weights.end(), [](double w) { return w == 0.0; })) {
+    diag.error(where, fmt::format("{} weights are all zero", path),
+               "at least one opening hour must have customers");
+    return std::nullopt;
+  }
+  return d;
+}
+
+void read_demand_fields(Params& p, DemandDraft& d, const ItemContext& ctx) {
   d.base = number_field(p, "base", Range::at_least(0));
   if (p.has("weekday")) {
     d.weekday.given = true;
@@ -251,31 +341,122 @@ void read_demand_fields(Params& p, DemandDraft& d) {
   }
   d.cv = number_field(p, "cv", Range::above(0));
   d.dispersion = number_field(p, "dispersion", Range::above(0));
-  reject_unsupported(p, "intraday",
-                     "intraday demand profiles come in a later version; remove the key");
+  if (p.has("intraday")) {
+    d.intraday.given = true;
+    d.intraday.where = p.location("intraday");
+    d.intraday.value =
+        read_intraday(p.raw("intraday"), p.path_of("intraday"), ctx, p.file(), p.diagnostics());
+  }
+}
+
+/// Reads a disposition choice among `options` into `f`.
+void read_leftovers(Params& p, std::string_view key,
+                    std::initializer_list<std::string_view> options, Field<Leftovers>& f) {
+  if (!p.has(key)) return;
+  f.given = true;
+  f.where = p.location(key);
+  const std::string l = p.choice(key, "", options);
+  for (const Leftovers v :
+       {Leftovers::discard, Leftovers::salvage, Leftovers::donate, Leftovers::discount_next_day}) {
+    if (l == to_string(v)) f.value = v;
+  }
+}
+
+void read_next_day(Params& p, Field<NextDayDraft>& f) {
+  f.given = p.has("next_day");
+  if (!f.given) return;
+  f.where = p.location("next_day");
+  auto np = p.mapping("next_day");
+  if (!np) return;
+  NextDayDraft d;
+  d.price = number_field(*np, "price", Range::at_least(0));
+  read_leftovers(*np, "fallback", {"discard", "salvage", "donate"}, d.fallback);
+  d.bargain_demand = number_field(*np, "bargain_demand", Range::at_least(0));
+  np->finish();
+  f.value = d;
+}
+
+void read_markdown(Params& p, Field<MarkdownDraft>& f, const ItemContext& ctx) {
+  f.given = p.has("markdown");
+  if (!f.given) return;
+  f.where = p.location("markdown");
+  auto mp = p.mapping("markdown");
+  if (!mp) return;
+  MarkdownDraft d;
+  if (!mp->has("from_hour")) {
+    report_required(*mp, "from_hour",
+                    "the clock hour from which units on their last day sell at the markdown "
+                    "price, e.g. from_hour: 17");
+  } else {
+    d.from_hour = integer_field(*mp, "from_hour", Range{});
+    const auto h = d.from_hour.value;
+    if (h && ctx.hours_ok && !(ctx.open_hour < *h && *h < ctx.close_hour)) {
+      mp->error("from_hour",
+                fmt::format("{} must be after calendar.hours.open ({}) and before "
+                            "calendar.hours.close ({}) (got {})",
+                            mp->path_of("from_hour"), ctx.open_hour, ctx.close_hour, *h),
+                "the markdown price applies from that clock hour until closing");
+      d.from_hour.value.reset();
+    }
+  }
+  d.price = number_field(*mp, "price", Range::at_least(0));
+  d.uplift = number_field(*mp, "uplift", Range::at_least(0));
+  mp->finish();
+  f.value = d;
+}
+
+/// Reads `substitutes: { id: share, ... }` (ids are resolved once every item is read).
+void read_substitutes(Params& p, std::vector<SubstituteRef>& out) {
+  if (!p.has("substitutes")) return;
+  const YAML::Node node = p.raw("substitutes");
+  const std::string path = p.path_of("substitutes");
+  Diagnostics& diag = p.diagnostics();
+  if (!node.IsMap()) {
+    diag.error(location_of(node, p.file()),
+               fmt::format("{} must be a mapping from item id to share such as {{ rye: 0.25 }} "
+                           "(got {})",
+                           path, describe_value(node)));
+    return;
+  }
+  bool ok = true;
+  double sum = 0.0;
+  for (const auto& kv : node) {
+    if (!kv.first.IsScalar() || kv.first.Scalar().empty()) {
+      diag.error(
+          location_of(kv.first, p.file()),
+          fmt::format("{} must have item ids as keys (got {})", path, describe_value(kv.first)));
+      ok = false;
+      continue;
+    }
+    const std::string& id = kv.first.Scalar();
+    const auto share = read_number(kv.second, fmt::format("{}.{}", path, id), Range::probability(),
+                                   p.file(), diag);
+    if (!share) {
+      ok = false;
+      continue;
+    }
+    sum += *share;
+    out.push_back({id, *share, location_of(kv.first, p.file())});
+  }
+  if (ok && sum > 1.0 + kShareSumSlack) {
+    diag.error(p.key_location("substitutes"),
+               fmt::format("{} shares sum to {:.6g}; they must sum to at most 1", path, sum),
+               "a share is the probability that a customer who finds this item out tries that "
+               "item; the rest leave");
+  }
 }
 
 /// Reads every item key but `id` that is written in `p` (an item or item_defaults).
-void read_item_fields(Params& p, ItemDraft& d) {
+void read_item_fields(Params& p, ItemDraft& d, const ItemContext& ctx) {
   d.price = number_field(p, "price", Range::at_least(0));
   d.unit_cost = number_field(p, "unit_cost", Range::at_least(0));
   d.shelf_life_days = integer_field(p, "shelf_life_days", Range::at_least(1));
   d.pack_size = integer_field(p, "pack_size", Range::at_least(1));
   d.shelf_capacity = integer_field(p, "shelf_capacity", Range::at_least(1));
-  if (p.has("leftovers")) {
-    d.leftovers.given = true;
-    d.leftovers.where = p.location("leftovers");
-    const std::string l =
-        p.choice("leftovers", "", {"discard", "salvage", "donate", "discount_next_day"});
-    if (l == "discard") d.leftovers.value = Leftovers::discard;
-    if (l == "salvage") d.leftovers.value = Leftovers::salvage;
-    if (l == "donate") d.leftovers.value = Leftovers::donate;
-    if (l == "discount_next_day") {
-      p.error("leftovers",
-              fmt::format("{}: discount_next_day {}", p.path_of("leftovers"), kNotSupported),
-              "use discard, salvage or donate");
-    }
-  }
+  read_leftovers(p, "leftovers", {"discard", "salvage", "donate", "discount_next_day"},
+                 d.leftovers);
+  read_next_day(p, d.next_day);
+  read_markdown(p, d.markdown, ctx);
   d.salvage_value = number_field(p, "salvage_value", Range::at_least(0));
   d.disposal_cost = number_field(p, "disposal_cost", Range::at_least(0));
   d.stockout_penalty = number_field(p, "stockout_penalty", Range::at_least(0));
@@ -286,14 +467,20 @@ void read_item_fields(Params& p, ItemDraft& d) {
     d.demand.given = true;
     d.demand.where = p.location("demand");
     if (auto dp = p.mapping("demand")) {
-      read_demand_fields(*dp, d.demand);
+      read_demand_fields(*dp, d.demand, ctx);
       dp->finish();
     } else {
       d.demand.broken = true;
     }
   }
-  reject_unsupported(p, "substitutes",
-                     "substitution between items comes in a later version; remove the key");
+  if (ctx.defaults) {
+    if (written(p, "substitutes")) {
+      p.diagnostics().error(p.key_location("substitutes"), "item_defaults cannot set substitutes",
+                            "give substitutes per item: they name other items");
+    }
+  } else {
+    read_substitutes(p, d.substitutes);
+  }
 }
 
 /// Merges an item with item_defaults and checks the rules of the whole item. Problems go to
@@ -323,13 +510,68 @@ Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
   item.weight_kg = pick(it.weight_kg, def.weight_kg).value;
   item.co2e_kg = pick(it.co2e_kg, def.co2e_kg).value;
 
-  if (leftovers.value == Leftovers::salvage && unit_cost && (!salvage.given || salvage.value) &&
+  // A discounted price is at most the item's price [half of it]; `f` is the price as written,
+  // in the item or in item_defaults.
+  const auto discounted_price = [&](const Field<double>& f, std::string_view key,
+                                    bool from_defaults) {
+    if (!f.value) return item.price / 2.0;
+    if (price && *f.value > item.price) {
+      p.diagnostics().error(
+          f.where,
+          fmt::format("{}.price ({}) must be at most {} ({})", p.path_of(key), *f.value,
+                      p.path_of("price"), item.price),
+          from_defaults ? fmt::format("{} comes from item_defaults (line {}); a discounted unit "
+                                      "sells at most at the full price",
+                                      key, f.where.line)
+                        : std::string("a discounted unit sells at most at the full price"));
+    }
+    return *f.value;
+  };
+
+  // Next-day discount: set, with its defaults, exactly when leftovers is discount_next_day.
+  const bool leftovers_known = !leftovers.given || leftovers.value;
+  if (it.next_day.given && leftovers_known && item.leftovers != Leftovers::discount_next_day) {
+    p.diagnostics().error(it.next_day.where,
+                          fmt::format("{} is given but {} is {}", p.path_of("next_day"),
+                                      p.path_of("leftovers"), to_string(item.leftovers)),
+                          "set leftovers: discount_next_day to sell leftovers one more day at "
+                          "next_day.price, or remove next_day");
+  }
+  const Field<NextDayDraft>& next_day = pick(it.next_day, def.next_day);
+  Field<Leftovers> fallback;
+  if (item.leftovers == Leftovers::discount_next_day) {
+    NextDayDiscount nd;
+    nd.price = item.price / 2.0;
+    if (next_day.value) {
+      nd.price = discounted_price(next_day.value->price, "next_day", !it.next_day.given);
+      fallback = next_day.value->fallback;
+      nd.fallback = fallback.value.value_or(Leftovers::discard);
+      nd.bargain_demand = next_day.value->bargain_demand.value.value_or(0.0);
+    }
+    item.next_day = nd;
+  }
+
+  // Units leaving by salvage (directly, or after their discounted day) must not pay to order.
+  const Field<Leftovers>* salvaged_by = nullptr;
+  if (leftovers.value == Leftovers::salvage) salvaged_by = &leftovers;
+  if (item.next_day && fallback.value == Leftovers::salvage) salvaged_by = &fallback;
+  if (salvaged_by && unit_cost && (!salvage.given || salvage.value) &&
       item.salvage_value >= item.unit_cost) {
-    p.diagnostics().error(salvage.given ? salvage.where : leftovers.where,
-                          fmt::format("{} ({}) must be less than {} ({}) when leftovers is salvage",
-                                      p.path_of("salvage_value"), item.salvage_value,
-                                      p.path_of("unit_cost"), item.unit_cost),
-                          "otherwise every extra unit ordered would pay");
+    p.diagnostics().error(
+        salvage.given ? salvage.where : salvaged_by->where,
+        fmt::format("{} ({}) must be less than {} ({}) when {} is salvage",
+                    p.path_of("salvage_value"), item.salvage_value, p.path_of("unit_cost"),
+                    item.unit_cost, salvaged_by == &fallback ? "next_day.fallback" : "leftovers"),
+        "otherwise every extra unit ordered would pay");
+  }
+
+  // Evening markdown, merged as a whole mapping.
+  if (const Field<MarkdownDraft>& markdown = pick(it.markdown, def.markdown); markdown.value) {
+    Markdown m;
+    m.from_hour = markdown.value->from_hour.value.value_or(0);
+    m.price = discounted_price(markdown.value->price, "markdown", !it.markdown.given);
+    m.uplift = markdown.value->uplift.value.value_or(0.0);
+    item.markdown = m;
   }
 
   // Demand: merged key by key; nothing more can be said when either side is not a mapping.
@@ -348,6 +590,13 @@ Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
   item.demand.base = base.value.value_or(0.0);
   if (const auto& w = pick(it.demand.weekday, def.demand.weekday); w.value) {
     item.demand.weekday = *w.value;
+  }
+  if (const auto& intraday = pick(it.demand.intraday, def.demand.intraday); intraday.value) {
+    if (intraday.value->weights.empty()) {
+      item.demand.intraday = intraday.value->profile;
+    } else {
+      item.demand.intraday_weights = intraday.value->weights;
+    }
   }
   const Field<DemandFamily>& family = pick(it.demand.family, def.demand.family);
   if (family.given && !family.value) return item;  // already reported
@@ -512,8 +761,10 @@ class ScenarioReader {
   }
 
   void read_calendar(Params& top) {
+    hours_ok_ = !top.has("calendar");
     auto cp = top.mapping("calendar");
     if (!cp) return;
+    hours_ok_ = !cp->has("hours");
     Calendar& cal = scenario_.calendar;
     if (cp->has("open_weekdays")) {
       const auto set =
@@ -528,7 +779,8 @@ class ScenarioReader {
       if ((open || !open_given) && (close || !close_given)) {
         cal.open_hour = open.value_or(cal.open_hour);
         cal.close_hour = close.value_or(cal.close_hour);
-        if (cal.open_hour >= cal.close_hour) {
+        hours_ok_ = cal.open_hour < cal.close_hour;
+        if (!hours_ok_) {
           hours->error(close_given ? "close" : "open",
                        fmt::format("calendar.hours.open ({}) must be before calendar.hours.close "
                                    "({})",
@@ -687,15 +939,17 @@ class ScenarioReader {
   }
 
   void read_items(Params& top) {
+    ItemContext ctx{scenario_.calendar.open_hour, scenario_.calendar.close_hour, hours_ok_, true};
     ItemDraft defaults;
     if (auto dp = top.mapping("item_defaults")) {
       if (written(*dp, "id")) {
         diag_.error(dp->key_location("id"), "item_defaults cannot set id",
                     "every item gives its own id");
       }
-      read_item_fields(*dp, defaults);
+      read_item_fields(*dp, defaults, ctx);
       dp->finish();
     }
+    ctx.defaults = false;
     const YAML::Node list = top.raw("items");
     if (!list.IsDefined() || list.IsNull()) {
       report_required(top, "items",
@@ -712,6 +966,8 @@ class ScenarioReader {
       return;
     }
     IdRegistry ids;
+    std::vector<PendingSubstitutes> pending;
+    bool next_day_default_used = false;  // some item takes item_defaults.next_day
     for (size_t i = 0; i < list.size(); ++i) {
       const YAML::Node node = list[i];
       const std::string path = fmt::format("items[{}]", i);
@@ -726,11 +982,69 @@ class ScenarioReader {
       if (id) claim_id(ids, *id, path, ip, "id");
       ItemDraft draft;
       draft.attributes = defaults.attributes;
-      read_item_fields(ip, draft);
+      read_item_fields(ip, draft, ctx);
       ip.finish();
       Item item = build_item(draft, defaults, ip);
       item.id = id.value_or("");
+      const Field<Leftovers>& leftovers = pick(draft.leftovers, defaults.leftovers);
+      const bool keeps_a_day = leftovers.value == Leftovers::discount_next_day ||
+                               (leftovers.given && !leftovers.value);  // unknown: do not guess
+      next_day_default_used = next_day_default_used || (keeps_a_day && !draft.next_day.given);
+      if (!draft.substitutes.empty()) {
+        pending.push_back(
+            {scenario_.items.size(), ip.path_of("substitutes"), std::move(draft.substitutes)});
+      }
       scenario_.items.push_back(std::move(item));
+    }
+    if (defaults.next_day.given && !next_day_default_used && !scenario_.items.empty()) {
+      diag_.error(defaults.next_day.where,
+                  "item_defaults.next_day is used by no item (it applies to items with "
+                  "leftovers: discount_next_day that give no next_day of their own)",
+                  "set leftovers: discount_next_day, in item_defaults or on the items, or remove "
+                  "next_day");
+    }
+    resolve_substitutes(pending);
+  }
+
+  /// An item's substitutes as written, resolved once every item (and id) is known.
+  struct PendingSubstitutes {
+    size_t item = 0;
+    std::string path;  ///< e.g. "items[0].substitutes"
+    std::vector<SubstituteRef> refs;
+  };
+
+  /// Turns substitute ids into item indices (forward references allowed); reports unknown ids
+  /// and items naming themselves.
+  void resolve_substitutes(const std::vector<PendingSubstitutes>& pending) {
+    std::map<std::string, int> index;
+    std::vector<std::string> ids;
+    for (size_t i = 0; i < scenario_.items.size(); ++i) {
+      const std::string& id = scenario_.items[i].id;
+      if (id.empty()) continue;
+      if (index.emplace(id, static_cast<int>(i)).second) ids.push_back(id);
+    }
+    for (const PendingSubstitutes& p : pending) {
+      Item& item = scenario_.items[p.item];
+      for (const SubstituteRef& ref : p.refs) {
+        const auto it = index.find(ref.id);
+        if (it == index.end()) {
+          const std::string near = closest_name(ref.id, ids);
+          std::string hint;
+          if (!near.empty()) {
+            hint = fmt::format("did you mean '{}'?", near);
+          } else if (ids.size() <= 10) {
+            hint = fmt::format("the items are {}", join(ids));
+          }
+          diag_.error(ref.where,
+                      fmt::format("{} names '{}', which is not an item id", p.path, ref.id),
+                      std::move(hint));
+        } else if (ref.id == item.id) {
+          diag_.error(ref.where, fmt::format("{} names the item itself ('{}')", p.path, ref.id),
+                      "a substitute is another item that customers take when this one is out");
+        } else {
+          item.substitutes.push_back(Substitute{it->second, ref.share});
+        }
+      }
     }
   }
 
@@ -738,8 +1052,8 @@ class ScenarioReader {
     auto cp = top.mapping("customers");
     if (!cp) return;
     scenario_.fifo_share = cp->number("fifo_share", scenario_.fifo_share, Range::probability());
-    reject_unsupported(*cp, "discount_take_rate",
-                       "discounted units come in a later version; remove the key");
+    scenario_.discount_take_rate =
+        cp->number("discount_take_rate", scenario_.discount_take_rate, Range::probability());
     if (auto gp = cp->mapping("goodwill")) {
       Goodwill& g = scenario_.goodwill;
       g.sensitivity = gp->number("sensitivity", g.sensitivity, Range::probability());
@@ -834,11 +1148,14 @@ class ScenarioReader {
           if (part) adjustments.push_back(std::move(*part));
         }
       }
+      const bool observe_intraday =
+          pp.choice("observe", "daily", {"daily", "intraday"}) == "intraday";
       pp.finish();
       // Built once: assigning over an existing YAML::Node would rewrite the node it refers to.
       scenario_.policies.push_back(
           PolicySpec{name.value_or(""), location_of(node, file_), forecast.value_or(PartSpec{}),
-                     censoring.value_or(PartSpec{}), quantity.value_or(PartSpec{}), adjustments});
+                     censoring.value_or(PartSpec{}), quantity.value_or(PartSpec{}), adjustments,
+                     observe_intraday});
     }
   }
 
@@ -876,7 +1193,8 @@ class ScenarioReader {
   const std::string& file_;
   Diagnostics& diag_;
   Scenario scenario_;
-  bool days_ok_ = true;  ///< horizon.days is valid, so day ranges can be checked against it
+  bool days_ok_ = true;   ///< horizon.days is valid, so day ranges can be checked against it
+  bool hours_ok_ = true;  ///< calendar.hours is valid, so hour rules can be checked against it
   std::vector<EventStoreRef> event_store_refs_;
 };
 

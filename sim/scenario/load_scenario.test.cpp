@@ -75,9 +75,10 @@ constexpr const char* kWeekdays = "weekdays are mon, tue, wed, thu, fri, sat, su
 // ---------------------------------------------------------------------------------------------
 // Valid scenarios
 
-TEST_CASE("the example of scenario.md (minus unsupported features) loads", "[scenario]") {
-  // scenario.md's example without intraday, substitutes, discount_take_rate, goodwill,
-  // demand_shocks and delivery_weekdays, which this version rejects; a second item added.
+TEST_CASE("the example of scenario.md loads, newer keys included", "[scenario]") {
+  // scenario.md's example, with the two items its substitutes name added (rye writing the item
+  // keys sourdough leaves out), a store named on an event, adjustments on a policy, and a baseline
+  // other than the first policy so that its check cannot pass by the default.
   const std::string text = R"(format: 1
 name: harbourside-bakeries
 seed: 20261202
@@ -109,6 +110,8 @@ items:
       weekday: { mon: 0.9, sat: 1.4 }
       distribution: negative_binomial
       cv: 0.35
+      intraday: morning_peak
+    substitutes: { rye: 0.25, spelt: 0.15 }
   - id: rye
     price: 3.10
     unit_cost: 0.95
@@ -119,9 +122,15 @@ items:
     stockout_penalty: 0.5
     co2e_kg: 1.1
     demand: { base: 9, distribution: normal, dispersion: 4 }
+  - { id: spelt, price: 3.60, unit_cost: 1.10, demand: { base: 6 } }
 customers:
   fifo_share: 0.3
-logistics: { lead_time_days: 1 }
+  discount_take_rate: 0.4
+  goodwill: { sensitivity: 0.0, half_life_days: 14 }
+demand_shocks:
+  store_traffic_cv: 0.10
+  persistence: { lag: 7, coefficient: 0.3, cv: 0.15 }
+logistics: { lead_time_days: 1, delivery_weekdays: [mon, tue, wed, thu, fri, sat] }
 policies:
   - name: current-practice
     forecast: { method: ses_weekday, alpha: 0.45 }
@@ -152,6 +161,7 @@ baseline: per-item-levels
   CHECK(s.calendar.open_weekdays == larder::WeekdaySet{true, true, true, true, true, true, false});
   CHECK(s.calendar.open_hour == 7);
   CHECK(s.calendar.close_hour == 19);
+  CHECK(s.hours() == 12);
   REQUIRE(s.calendar.events.size() == 2);
   CHECK(s.calendar.events[0].day == 120);
   CHECK(s.calendar.events[0].demand == 1.6);
@@ -173,7 +183,7 @@ baseline: per-item-levels
   CHECK(s.stores[1].open_weekdays ==
         larder::WeekdaySet{true, true, true, true, true, false, false});
 
-  REQUIRE(s.items.size() == 2);
+  REQUIRE(s.items.size() == 3);
   const larder::Item& sd = s.items[0];
   CHECK(sd.id == "sourdough");
   CHECK(sd.attributes ==
@@ -194,9 +204,21 @@ baseline: per-item-levels
   CHECK(sd.demand.family == larder::DemandFamily::negative_binomial);
   CHECK(sd.demand.cv == 0.35);
   CHECK_FALSE(sd.demand.dispersion);
+  CHECK(sd.demand.intraday == "morning_peak");
+  CHECK(sd.demand.intraday_weights.empty());
+  // substitutes: rye is items[1], spelt items[2], in the order written.
+  REQUIRE(sd.substitutes.size() == 2);
+  CHECK(sd.substitutes[0].item == 1);
+  CHECK(sd.substitutes[0].share == 0.25);
+  CHECK(sd.substitutes[1].item == 2);
+  CHECK(sd.substitutes[1].share == 0.15);
+  CHECK_FALSE(sd.next_day);
+  CHECK_FALSE(sd.markdown);
   const larder::Item& rye = s.items[1];
   CHECK(rye.id == "rye");
   CHECK(rye.attributes.empty());
+  CHECK(rye.price == 3.10);
+  CHECK(rye.unit_cost == 0.95);
   CHECK(rye.shelf_life_days == 3);
   CHECK(rye.pack_size == 6);
   CHECK(rye.leftovers == larder::Leftovers::salvage);
@@ -204,22 +226,39 @@ baseline: per-item-levels
   CHECK(rye.stockout_penalty == 0.5);
   CHECK_FALSE(rye.weight_kg);
   CHECK(rye.co2e_kg == 1.1);
+  CHECK(rye.demand.base == 9);
   CHECK(rye.demand.family == larder::DemandFamily::normal);
   CHECK_FALSE(rye.demand.cv);
   CHECK(rye.demand.dispersion == 4);
+  CHECK(rye.demand.intraday == "flat");
+  CHECK(rye.substitutes.empty());
+  const larder::Item& spelt = s.items[2];
+  CHECK(spelt.id == "spelt");
+  CHECK(spelt.price == 3.60);
+  CHECK(spelt.unit_cost == 1.10);
+  CHECK(spelt.demand.base == 6);
+  CHECK(spelt.substitutes.empty());
 
   CHECK(s.fifo_share == 0.3);
+  CHECK(s.discount_take_rate == 0.4);
+  CHECK(s.goodwill.sensitivity == 0.0);
+  CHECK(s.goodwill.half_life_days == 14);
+  CHECK(s.shocks.store_traffic_cv == 0.10);
+  CHECK(s.shocks.persistence_lag == 7);
+  CHECK(s.shocks.persistence_coefficient == 0.3);
+  CHECK(s.shocks.persistence_cv == 0.15);
   CHECK(s.logistics.lead_time_days == 1);
-  CHECK(s.logistics.delivery_weekdays == larder::kAllWeekdays);
+  CHECK(s.logistics.delivery_weekdays ==
+        larder::WeekdaySet{true, true, true, true, true, true, false});
 
   REQUIRE(s.policies.size() == 2);
   const larder::PolicySpec& cur = s.policies[0];
   CHECK(cur.name == "current-practice");
-  CHECK(cur.where.line == 46);
+  CHECK(cur.where.line == 54);
   CHECK(cur.forecast.method == "ses_weekday");
   CHECK(cur.forecast.path == "policies[0].forecast");
   CHECK(cur.forecast.where.file == "harbour.yaml");
-  CHECK(cur.forecast.where.line == 47);
+  CHECK(cur.forecast.where.line == 55);
   CHECK(cur.forecast.where.column == 15);
   // brief: params is the whole part node as written, for the part to validate.
   CHECK(cur.forecast.params["alpha"].as<double>() == 0.45);
@@ -241,7 +280,7 @@ baseline: per-item-levels
   CHECK(pil.adjustments[1].method == "cap_growth");
   CHECK(pil.adjustments[1].path == "policies[1].adjustments[1]");
   CHECK(pil.adjustments[1].params["factor"].as<int>() == 2);
-  CHECK(pil.adjustments[1].where.line == 54);
+  CHECK(pil.adjustments[1].where.line == 62);
   CHECK(s.baseline == 1);
 }
 
@@ -256,7 +295,8 @@ TEST_CASE("defaults apply to every key left out", "[scenario]") {
   CHECK(s.calendar.open_hour == 8);                         // [8 to 20]
   CHECK(s.calendar.close_hour == 20);
   CHECK(s.calendar.events.empty());
-  CHECK(s.fifo_share == 0.5);  // [0.5]
+  CHECK(s.fifo_share == 0.5);          // [0.5]
+  CHECK(s.discount_take_rate == 0.5);  // brief: discount_take_rate [0.5]
   CHECK(s.logistics.lead_time_days == 1);
   CHECK(s.logistics.delivery_weekdays == larder::kAllWeekdays);
   CHECK(s.baseline == 0);  // [first policy]
@@ -279,7 +319,14 @@ TEST_CASE("defaults apply to every key left out", "[scenario]") {
   CHECK(i.demand.weekday == std::array<double, 7>{1, 1, 1, 1, 1, 1, 1});
   CHECK_FALSE(i.demand.cv);
   CHECK_FALSE(i.demand.dispersion);
+  // brief: intraday ["flat"]; no substitutes, next-day discount or markdown unless written.
+  CHECK(i.demand.intraday == "flat");
+  CHECK(i.demand.intraday_weights.empty());
+  CHECK(i.substitutes.empty());
+  CHECK_FALSE(i.next_day);
+  CHECK_FALSE(i.markdown);
   REQUIRE(s.policies.size() == 1);
+  CHECK_FALSE(s.policies[0].observe_intraday);        // brief: observe [daily]
   CHECK(s.policies[0].censoring.method == "ignore");  // brief: censoring [ignore]
   CHECK(s.policies[0].censoring.path == "policies[0].censoring");
   CHECK(s.policies[0].adjustments.empty());
@@ -409,8 +456,9 @@ TEST_CASE("unknown keys are errors with a did-you-mean hint", "[scenario]") {
         Lines{"t.yaml:1:61: error: unknown key 'bsae' in items[0].demand\n"
               "  hint: did you mean 'base'?"});
   CHECK(problems("policies: [{ name: p, forecast: { method: x }, quantity: { rule: y }, "
-                 "observe: intraday }]\n") ==
-        Lines{"t.yaml:1:71: error: unknown key 'observe' in policies[0]"});
+                 "observ: intraday }]\n") ==
+        Lines{"t.yaml:1:71: error: unknown key 'observ' in policies[0]\n"
+              "  hint: did you mean 'observe'?"});
 }
 
 TEST_CASE("a key given twice in one mapping is an error at the second", "[scenario]") {
@@ -502,6 +550,13 @@ TEST_CASE("nothing throws out of parse_scenario, whatever the shapes", "[scenari
         "{a: 1}}] }\nitems: [{ id: a, price: {}, demand: { weekday: 3, base: [1] } }]\n"
         "policies: [{ name: [p], forecast: [1], censoring: {}, quantity: { rule: {a: 1} }, "
         "adjustments: {a: 1} }]\n",
+        "item_defaults: { next_day: [1], markdown: { from_hour: [1], price: {} }, substitutes: 1, "
+        "demand: { intraday: [[1], {}] } }\nitems: [{ id: a, price: 1, unit_cost: 1, demand: "
+        "{ base: 1, intraday: {a: 1} }, leftovers: [x], substitutes: { [a]: 1, b: [1], c: {} }, "
+        "next_day: { fallback: [1], price: [] }, markdown: [] }, { id: b, substitutes: [1] }]\n"
+        "customers: { discount_take_rate: {} }\npolicies: [{ observe: [1] }]\n",
+        "calendar: { hours: { open: [1] } }\nitems: [{ id: a, price: 1, unit_cost: 1, demand: "
+        "{ base: 1, intraday: [1] }, markdown: { from_hour: 99 }, substitutes: { ~: 1 } }]\n",
         "? [a, b]\n: 1\n", "&a [*a]\n", "a: &x {b: *x}\n", "--- !!map\n", "%YAML 1.2\n---\n1\n"}) {
     Diagnostics d;
     CHECK_NOTHROW(larder::parse_scenario(text, "t.yaml", d));
@@ -898,30 +953,15 @@ TEST_CASE("item_defaults are checked where they are written", "[scenario]") {
               "exactly one\n  hint: cv comes from item_defaults (line 1); remove one of them"});
 }
 
-TEST_CASE("unknown item keys and unsupported item features", "[scenario]") {
+TEST_CASE("unknown item keys", "[scenario]") {
   CHECK(
       problems("items: [{ id: a, prize: 1, unit_cost: 1, demand: { base: 1 } }]\n") ==
       Lines{"t.yaml:1:9: error: items[0].price is required",
             "t.yaml:1:18: error: unknown key 'prize' in items[0]\n  hint: did you mean 'price'?"});
-  // brief: features of the spec that this version lacks say so instead of "unknown key".
-  CHECK(problems("items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 }, "
-                 "substitutes: { b: 0.2 } }]\n") ==
-        Lines{"t.yaml:1:63: error: items[0].substitutes is not supported yet by this version of "
-              "larder\n  hint: substitution between items comes in a later version; remove the "
-              "key"});
-  CHECK(problems("items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1, "
-                 "intraday: morning_peak } }]\n") ==
-        Lines{"t.yaml:1:61: error: items[0].demand.intraday is not supported yet by this version "
-              "of larder\n  hint: intraday demand profiles come in a later version; remove the "
-              "key"});
-  CHECK(problems("items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 }, "
-                 "leftovers: discount_next_day }]\n") ==
-        Lines{"t.yaml:1:74: error: items[0].leftovers: discount_next_day is not supported yet by "
-              "this version of larder\n  hint: use discard, salvage or donate"});
-  CHECK(problems("item_defaults: { substitutes: {} }\n") ==
-        Lines{"t.yaml:1:18: error: item_defaults.substitutes is not supported yet by this version "
-              "of larder\n  hint: substitution between items comes in a later version; remove the "
-              "key"});
+  CHECK(
+      problems("items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 }, markdwon: {} }]\n") ==
+      Lines{"t.yaml:1:63: error: unknown key 'markdwon' in items[0]\n"
+            "  hint: did you mean 'markdown'?"});
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -931,13 +971,13 @@ TEST_CASE("customers", "[scenario]") {
   // brief: fifo_share in [0, 1].
   CHECK(problems("customers: { fifo_share: 1.5 }\n") ==
         Lines{"t.yaml:1:26: error: customers.fifo_share must be in [0, 1] (got 1.5)"});
-  CHECK(problems("customers: { discount_take_rate: 0.4 }\n") ==
-        Lines{"t.yaml:1:14: error: customers.discount_take_rate is not supported yet by this "
-              "version of larder\n  hint: discounted units come in a later version; remove the "
-              "key"});
+  // scenario.md: discount_take_rate is a share of customers, a probability [0.5].
+  CHECK(valid("customers: { discount_take_rate: 0.4 }\n").discount_take_rate == 0.4);
+  CHECK(valid("customers: { discount_take_rate: 0 }\n").discount_take_rate == 0.0);
+  CHECK(problems("customers: { discount_take_rate: 1.2 }\n") ==
+        Lines{"t.yaml:1:34: error: customers.discount_take_rate must be in [0, 1] (got 1.2)"});
   // model.md, Demand: goodwill sensitivity in [0, 1], half-life in days > 0.
-  const Scenario g =
-      valid("customers: { goodwill: { sensitivity: 0.5, half_life_days: 10 } }\n");
+  const Scenario g = valid("customers: { goodwill: { sensitivity: 0.5, half_life_days: 10 } }\n");
   CHECK(g.goodwill.sensitivity == 0.5);
   CHECK(g.goodwill.half_life_days == 10);
   CHECK(problems("customers: { goodwill: { sensitivity: 2 } }\n") ==
@@ -1059,4 +1099,304 @@ TEST_CASE("shelf capacity", "[scenario]") {
   CHECK(!valid("").items[0].shelf_capacity.has_value());
   CHECK(problems("item_defaults: { shelf_capacity: 0 }\n") ==
         Lines{"t.yaml:1:34: error: item_defaults.shelf_capacity must be >= 1 (got 0)"});
+}
+
+// ---------------------------------------------------------------------------------------------
+// intraday profiles, substitution, discounted tiers, observation
+
+TEST_CASE("demand.intraday: a profile name or one weight per opening hour", "[scenario]") {
+  // scenario.md: "a named profile or a list of hourly weights"; intraday_profile.hpp: the names.
+  const std::string head = "items: [{ id: a, price: 2, unit_cost: 1, demand: { base: 1, intraday: ";
+  for (const char* name : {"flat", "morning_peak", "midday_peak", "evening_peak"}) {
+    const Scenario s = valid(head + name + " } }]\n");
+    CHECK(s.items[0].demand.intraday == name);
+    CHECK(s.items[0].demand.intraday_weights.empty());
+  }
+  // Opening hours 9 to 13 are four hours: four weights, kept as written.
+  const std::string hours = "calendar: { hours: { open: 9, close: 13 } }\n";
+  const Scenario w = valid(hours + head + "[0, 2, 1.5, 0.5] } }]\n");
+  CHECK(w.items[0].demand.intraday_weights == std::vector<double>{0, 2, 1.5, 0.5});
+
+  // The value starts at column 71 of line 1 (line 2 after `hours`).
+  CHECK(problems(head + "mornin_peak } }]\n") ==
+        Lines{"t.yaml:1:71: error: items[0].demand.intraday must be a profile name (flat, "
+              "morning_peak, midday_peak, evening_peak) or a list of hourly weights (got "
+              "mornin_peak)\n  hint: did you mean 'morning_peak'?"});
+  CHECK(problems(head + "lunch } }]\n") ==
+        Lines{"t.yaml:1:71: error: items[0].demand.intraday must be a profile name (flat, "
+              "morning_peak, midday_peak, evening_peak) or a list of hourly weights (got "
+              "lunch)"});
+  CHECK(problems(head + "{ am: 2 } } }]\n") ==
+        Lines{"t.yaml:1:71: error: items[0].demand.intraday must be a profile name (flat, "
+              "morning_peak, midday_peak, evening_peak) or a list of hourly weights such as "
+              "[1, 2, 1] (got a mapping)"});
+  // brief: the default calendar opens 8 to 20, twelve hours.
+  CHECK(problems(head + "[1, 2, 3] } }]\n") ==
+        Lines{"t.yaml:1:71: error: items[0].demand.intraday gives 3 weights but the calendar has "
+              "12 opening hours (8:00 to 20:00)\n  hint: give one weight per opening hour, from "
+              "calendar.hours.open to calendar.hours.close"});
+  CHECK(problems(hours + head + "[] } }]\n") ==
+        Lines{"t.yaml:2:71: error: items[0].demand.intraday gives 0 weights but the calendar has "
+              "4 opening hours (9:00 to 13:00)\n  hint: give one weight per opening hour, from "
+              "calendar.hours.open to calendar.hours.close"});
+  // brief: each weight >= 0, not all zero.
+  CHECK(problems(hours + head + "[1, -1, 1, 1] } }]\n") ==
+        Lines{"t.yaml:2:75: error: items[0].demand.intraday[1] must be >= 0 (got -1)"});
+  CHECK(problems(hours + head + "[1, a, 1, 1] } }]\n") ==
+        Lines{"t.yaml:2:75: error: items[0].demand.intraday[1] must be a number (got a)"});
+  CHECK(problems(hours + head + "[0, 0, 0, 0] } }]\n") ==
+        Lines{"t.yaml:2:71: error: items[0].demand.intraday weights are all zero\n"
+              "  hint: at least one opening hour must have customers"});
+  // A broken calendar is reported alone: the weights are not counted against it.
+  CHECK(problems("calendar: { hours: { open: 20, close: 8 } }\n" + head + "[1, 2] } }]\n") ==
+        Lines{"t.yaml:1:39: error: calendar.hours.open (20) must be before calendar.hours.close "
+              "(8)"});
+}
+
+TEST_CASE("demand.intraday merges from item_defaults.demand", "[scenario]") {
+  // brief: mergeable from item_defaults.demand like the other demand fields.
+  const Scenario s = valid(R"(calendar: { hours: { open: 10, close: 13 } }
+item_defaults: { demand: { intraday: [1, 3, 1] } }
+items:
+  - { id: a, price: 2, unit_cost: 1, demand: { base: 1 } }
+  - { id: b, price: 2, unit_cost: 1, demand: { base: 1, intraday: evening_peak } }
+)");
+  CHECK(s.items[0].demand.intraday_weights == std::vector<double>{1, 3, 1});
+  CHECK(s.items[1].demand.intraday == "evening_peak");
+  CHECK(s.items[1].demand.intraday_weights.empty());
+  // Reported once, where item_defaults writes it (column 38), not once per item.
+  CHECK(problems("item_defaults: { demand: { intraday: [1, 3, 1] } }\n"
+                 "items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 } }, "
+                 "{ id: b, price: 1, unit_cost: 1, demand: { base: 1 } }]\n") ==
+        Lines{"t.yaml:1:38: error: item_defaults.demand.intraday gives 3 weights but the calendar "
+              "has 12 opening hours (8:00 to 20:00)\n  hint: give one weight per opening hour, "
+              "from calendar.hours.open to calendar.hours.close"});
+}
+
+TEST_CASE("substitutes name other items, with shares summing to at most 1", "[scenario]") {
+  // scenario.md / model.md step 3: substitutes map item ids to probabilities; brief: forward
+  // references allowed, resolved to item indices.
+  const Scenario s = valid(R"(items:
+  - { id: a, price: 2, unit_cost: 1, demand: { base: 1 }, substitutes: { c: 0.25, b: 0.15 } }
+  - { id: b, price: 2, unit_cost: 1, demand: { base: 1 } }
+  - { id: c, price: 2, unit_cost: 1, demand: { base: 1 }, substitutes: { a: 1 } }
+  - { id: d, price: 2, unit_cost: 1, demand: { base: 1 }, substitutes: { a: 0.34, b: 0.56, c: 0.1 } }
+)");
+  const auto& a = s.items[0].substitutes;
+  REQUIRE(a.size() == 2);
+  CHECK(a[0].item == 2);
+  CHECK(a[0].share == 0.25);
+  CHECK(a[1].item == 1);
+  CHECK(a[1].share == 0.15);
+  CHECK(s.items[1].substitutes.empty());
+  REQUIRE(s.items[2].substitutes.size() == 1);
+  CHECK(s.items[2].substitutes[0].item == 0);
+  CHECK(s.items[2].substitutes[0].share == 1.0);
+  // 0.34 + 0.56 + 0.1 is 1.0000000000000002 in doubles (python3: 0.34 + 0.56 + 0.1): shares
+  // written to sum to 1 are accepted.
+  CHECK(s.items[3].substitutes.size() == 3);
+
+  const std::string three =
+      "  - { id: rye, price: 2, unit_cost: 1, demand: { base: 1 } }\n"
+      "  - { id: spelt, price: 2, unit_cost: 1, demand: { base: 1 } }\n";
+  const std::string head = "items:\n  - { id: a, price: 2, unit_cost: 1, demand: { base: 1 }, ";
+  // On line 2, `substitutes` starts at column 59 and its mapping's first key at column 74.
+  CHECK(problems(head + "substitutes: { ryee: 0.2 } }\n" + three) ==
+        Lines{"t.yaml:2:74: error: items[0].substitutes names 'ryee', which is not an item id\n"
+              "  hint: did you mean 'rye'?"});
+  CHECK(problems(head + "substitutes: { barley: 0.2 } }\n" + three) ==
+        Lines{"t.yaml:2:74: error: items[0].substitutes names 'barley', which is not an item id\n"
+              "  hint: the items are a, rye, spelt"});
+  CHECK(problems(head + "substitutes: { a: 0.2 } }\n" + three) ==
+        Lines{"t.yaml:2:74: error: items[0].substitutes names the item itself ('a')\n"
+              "  hint: a substitute is another item that customers take when this one is out"});
+  // brief: shares in [0, 1], summing to <= 1 (error at the substitutes key, giving the sum).
+  CHECK(problems(head + "substitutes: { rye: 1.5 } }\n" + three) ==
+        Lines{"t.yaml:2:79: error: items[0].substitutes.rye must be in [0, 1] (got 1.5)"});
+  CHECK(problems(head + "substitutes: { rye: 0.6, spelt: 0.5 } }\n" + three) ==
+        Lines{"t.yaml:2:59: error: items[0].substitutes shares sum to 1.1; they must sum to at "
+              "most 1\n  hint: a share is the probability that a customer who finds this item "
+              "out tries that item; the rest leave"});
+  CHECK(problems(head + "substitutes: [rye] }\n" + three) ==
+        Lines{"t.yaml:2:72: error: items[0].substitutes must be a mapping from item id to share "
+              "such as { rye: 0.25 } (got a list)"});
+  // Every problem at once: an unknown id and a bad share in one mapping.
+  CHECK(problems(head + "substitutes: { ryee: 0.2, spelt: x } }\n" + three) ==
+        Lines{"t.yaml:2:74: error: items[0].substitutes names 'ryee', which is not an item id\n"
+              "  hint: did you mean 'rye'?",
+              "t.yaml:2:92: error: items[0].substitutes.spelt must be a number (got x)"});
+  // brief: not allowed under item_defaults.
+  CHECK(problems("item_defaults: { substitutes: { a: 0.1 } }\n") ==
+        Lines{"t.yaml:1:18: error: item_defaults cannot set substitutes\n"
+              "  hint: give substitutes per item: they name other items"});
+}
+
+TEST_CASE("leftovers: discount_next_day with next_day", "[scenario]") {
+  // model.md step 5 / scenario.md: discount_next_day keeps leftovers a day at a discount.
+  // brief: next_day { price [half the item price], fallback [discard], bargain_demand [0] }.
+  const std::string head = "items:\n  - { id: a, price: 3, unit_cost: 1, demand: { base: 1 }, ";
+  const Scenario plain = valid(head + "leftovers: discount_next_day }\n");
+  const larder::Item& p = plain.items[0];
+  CHECK(p.leftovers == larder::Leftovers::discount_next_day);
+  REQUIRE(p.next_day);
+  CHECK(p.next_day->price == 1.5);
+  CHECK(p.next_day->fallback == larder::Leftovers::discard);
+  CHECK(p.next_day->bargain_demand == 0.0);
+  const Scenario full = valid(head +
+                              "leftovers: discount_next_day, next_day: { price: 1, fallback: "
+                              "donate, bargain_demand: 0.2 } }\n");
+  REQUIRE(full.items[0].next_day);
+  CHECK(full.items[0].next_day->price == 1.0);
+  CHECK(full.items[0].next_day->fallback == larder::Leftovers::donate);
+  CHECK(full.items[0].next_day->bargain_demand == 0.2);
+  // The full price is allowed; salvage as the fallback with a salvage value below cost.
+  const Scenario edge = valid(head +
+                              "leftovers: discount_next_day, salvage_value: 0.5, next_day: { "
+                              "price: 3, fallback: salvage } }\n");
+  CHECK(edge.items[0].next_day->price == 3.0);
+  CHECK(edge.items[0].next_day->fallback == larder::Leftovers::salvage);
+  // item_defaults' next_day is taken whole; an item's own next_day replaces it whole.
+  const Scenario merged = valid(R"(item_defaults:
+  leftovers: discount_next_day
+  next_day: { price: 0.5, fallback: donate }
+items:
+  - { id: a, price: 3, unit_cost: 1, demand: { base: 1 } }
+  - { id: b, price: 3, unit_cost: 1, demand: { base: 1 }, next_day: { bargain_demand: 0.1 } }
+  - { id: c, price: 3, unit_cost: 1, demand: { base: 1 }, leftovers: discard }
+)");
+  const auto& a = merged.items[0].next_day;
+  REQUIRE(a);
+  CHECK(a->price == 0.5);
+  CHECK(a->fallback == larder::Leftovers::donate);
+  const auto& b = merged.items[1].next_day;
+  REQUIRE(b);
+  CHECK(b->price == 1.5);
+  CHECK(b->fallback == larder::Leftovers::discard);
+  CHECK(b->bargain_demand == 0.1);
+  // brief: next_day is set exactly when leftovers is discount_next_day.
+  CHECK_FALSE(merged.items[2].next_day);
+}
+
+TEST_CASE("next_day errors", "[scenario]") {
+  const std::string head = "items:\n  - { id: a, price: 2, unit_cost: 1, demand: { base: 1 }, ";
+  const std::string keep = head + "leftovers: discount_next_day, next_day: ";
+  // On line 2 of `keep`, the next_day mapping starts at column 99 and its first value at 108.
+  CHECK(problems(keep + "{ price: 2.5 } }\n") ==
+        Lines{"t.yaml:2:108: error: items[0].next_day.price (2.5) must be at most items[0].price "
+              "(2)\n  hint: a discounted unit sells at most at the full price"});
+  CHECK(problems(keep + "{ price: -1 } }\n") ==
+        Lines{"t.yaml:2:108: error: items[0].next_day.price must be >= 0 (got -1)"});
+  CHECK(problems(keep + "{ fallback: discount_next_day } }\n") ==
+        Lines{"t.yaml:2:111: error: items[0].next_day.fallback must be one of discard, salvage, "
+              "donate (got discount_next_day)"});
+  CHECK(problems(keep + "{ bargain_demand: -0.1 } }\n") ==
+        Lines{"t.yaml:2:117: error: items[0].next_day.bargain_demand must be >= 0 (got -0.1)"});
+  CHECK(problems(keep + "{ prise: 1 } }\n") ==
+        Lines{"t.yaml:2:101: error: unknown key 'prise' in items[0].next_day\n"
+              "  hint: did you mean 'price'?"});
+  CHECK(problems(keep + "half }\n") ==
+        Lines{"t.yaml:2:99: error: items[0].next_day must be a mapping of keys to values "
+              "(got half)"});
+  // brief: salvage as the fallback needs salvage_value < unit_cost, like leftovers: salvage.
+  CHECK(problems(head + "leftovers: discount_next_day, salvage_value: 1, next_day: { fallback: "
+                        "salvage } }\n") ==
+        Lines{"t.yaml:2:104: error: items[0].salvage_value (1) must be less than "
+              "items[0].unit_cost (1) when next_day.fallback is salvage\n"
+              "  hint: otherwise every extra unit ordered would pay"});
+  // brief: next_day without leftovers: discount_next_day is an error (mapping at column 69).
+  CHECK(problems(head + "next_day: { price: 1 } }\n") ==
+        Lines{"t.yaml:2:69: error: items[0].next_day is given but items[0].leftovers is discard\n"
+              "  hint: set leftovers: discount_next_day to sell leftovers one more day at "
+              "next_day.price, or remove next_day"});
+  CHECK(problems(head + "leftovers: donate, next_day: { price: 1 } }\n") ==
+        Lines{"t.yaml:2:88: error: items[0].next_day is given but items[0].leftovers is donate\n"
+              "  hint: set leftovers: discount_next_day to sell leftovers one more day at "
+              "next_day.price, or remove next_day"});
+  // In item_defaults: an error when no item takes it.
+  CHECK(problems("item_defaults: { next_day: { price: 1 } }\n") ==
+        Lines{"t.yaml:1:28: error: item_defaults.next_day is used by no item (it applies to "
+              "items with leftovers: discount_next_day that give no next_day of their own)\n"
+              "  hint: set leftovers: discount_next_day, in item_defaults or on the items, or "
+              "remove next_day"});
+  // A default price above an item's price is reported where item_defaults writes it.
+  CHECK(problems("item_defaults: { leftovers: discount_next_day, next_day: { price: 2.5 } }\n") ==
+        Lines{"t.yaml:1:67: error: items[0].next_day.price (2.5) must be at most items[0].price "
+              "(2)\n  hint: next_day comes from item_defaults (line 1); a discounted unit sells "
+              "at most at the full price"});
+}
+
+TEST_CASE("evening markdown", "[scenario]") {
+  // brief: markdown { from_hour (required, open < from_hour < close), price [half the item
+  // price] <= item price, uplift >= 0 [0] }.
+  const std::string head = "items:\n  - { id: a, price: 3, unit_cost: 1, demand: { base: 1 }, ";
+  const Scenario plain = valid(head + "markdown: { from_hour: 17 } }\n");
+  REQUIRE(plain.items[0].markdown);
+  CHECK(plain.items[0].markdown->from_hour == 17);
+  CHECK(plain.items[0].markdown->price == 1.5);
+  CHECK(plain.items[0].markdown->uplift == 0.0);
+  CHECK_FALSE(plain.items[0].next_day);
+  const Scenario full = valid(head + "markdown: { from_hour: 19, price: 1.2, uplift: 0.3 } }\n");
+  REQUIRE(full.items[0].markdown);
+  CHECK(full.items[0].markdown->from_hour == 19);  // the last opening hour (8 to 20)
+  CHECK(full.items[0].markdown->price == 1.2);
+  CHECK(full.items[0].markdown->uplift == 0.3);
+  // Merged from item_defaults as a whole mapping.
+  const Scenario merged = valid(R"(item_defaults: { markdown: { from_hour: 17, price: 1 } }
+items:
+  - { id: a, price: 3, unit_cost: 1, demand: { base: 1 } }
+  - { id: b, price: 4, unit_cost: 1, demand: { base: 1 }, markdown: { from_hour: 18 } }
+)");
+  REQUIRE(merged.items[0].markdown);
+  CHECK(merged.items[0].markdown->from_hour == 17);
+  CHECK(merged.items[0].markdown->price == 1.0);
+  REQUIRE(merged.items[1].markdown);
+  CHECK(merged.items[1].markdown->from_hour == 18);
+  CHECK(merged.items[1].markdown->price == 2.0);
+
+  // On line 2 the markdown mapping starts at column 69, its first value at column 82.
+  CHECK(problems(head + "markdown: { price: 1 } }\n") ==
+        Lines{"t.yaml:2:69: error: items[0].markdown.from_hour is required\n"
+              "  hint: the clock hour from which units on their last day sell at the markdown "
+              "price, e.g. from_hour: 17"});
+  for (const char* hour : {"8", "20", "3"}) {
+    CHECK(problems(head + "markdown: { from_hour: " + hour + " } }\n") ==
+          Lines{"t.yaml:2:82: error: items[0].markdown.from_hour must be after "
+                "calendar.hours.open (8) and before calendar.hours.close (20) (got " +
+                std::string(hour) +
+                ")\n  hint: the markdown price applies from that clock hour "
+                "until closing"});
+  }
+  CHECK(problems("calendar: { hours: { open: 7, close: 19 } }\n" + head +
+                 "markdown: { from_hour: 19 } }\n") ==
+        Lines{"t.yaml:3:82: error: items[0].markdown.from_hour must be after calendar.hours.open "
+              "(7) and before calendar.hours.close (19) (got 19)\n"
+              "  hint: the markdown price applies from that clock hour until closing"});
+  CHECK(problems(head + "markdown: { from_hour: 17.5 } }\n") ==
+        Lines{"t.yaml:2:82: error: items[0].markdown.from_hour must be a whole number (got 17.5)"});
+  CHECK(problems(head + "markdown: { from_hour: 17, price: 3.5 } }\n") ==
+        Lines{"t.yaml:2:93: error: items[0].markdown.price (3.5) must be at most items[0].price "
+              "(3)\n  hint: a discounted unit sells at most at the full price"});
+  CHECK(problems(head + "markdown: { from_hour: 17, uplift: -0.1 } }\n") ==
+        Lines{"t.yaml:2:94: error: items[0].markdown.uplift must be >= 0 (got -0.1)"});
+  CHECK(problems(head + "markdown: 17 }\n") ==
+        Lines{"t.yaml:2:69: error: items[0].markdown must be a mapping of keys to values "
+              "(got 17)"});
+  // Checked once where item_defaults writes it.
+  CHECK(problems("item_defaults: { markdown: { from_hour: 21 } }\n"
+                 "items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 } }, "
+                 "{ id: b, price: 1, unit_cost: 1, demand: { base: 1 } }]\n") ==
+        Lines{"t.yaml:1:41: error: item_defaults.markdown.from_hour must be after "
+              "calendar.hours.open (8) and before calendar.hours.close (20) (got 21)\n"
+              "  hint: the markdown price applies from that clock hour until closing"});
+}
+
+TEST_CASE("policies observe daily or intraday", "[scenario]") {
+  // model.md, Observation: `observe: intraday` adds sales per bucket and the sell-out time.
+  const std::string head =
+      "policies: [{ name: p, forecast: { method: x }, quantity: { rule: y }, observe: ";
+  CHECK(valid(head + "intraday }]\n").policies[0].observe_intraday);
+  CHECK_FALSE(valid(head + "daily }]\n").policies[0].observe_intraday);
+  CHECK(problems(head + "hourly }]\n") ==
+        Lines{"t.yaml:1:80: error: policies[0].observe must be one of daily, intraday "
+              "(got hourly)"});
 }

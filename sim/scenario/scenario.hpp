@@ -39,6 +39,33 @@ struct DemandSpec {
   /// Spread for negative_binomial and normal: exactly one of cv or dispersion.
   std::optional<double> cv;          ///< variance = (cv * mean)^2
   std::optional<double> dispersion;  ///< k: variance = mean + mean^2 / k
+  /// How the day's customers spread over the opening hours: a named profile (intraday_profile.hpp)
+  /// or, when `intraday_weights` is not empty, one weight per opening hour.
+  std::string intraday = "flat";
+  std::vector<double> intraday_weights;
+};
+
+/// One level of substitution (model.md, step 3): a customer who finds the item out tries
+/// `item` with probability `share`.
+struct Substitute {
+  int item = 0;  ///< index into Scenario::items
+  double share = 0.0;
+};
+
+/// `leftovers: discount_next_day`: units kept one extra day as a discounted tier, then disposed
+/// of with the fallback disposition.
+struct NextDayDiscount {
+  double price = 0.0;                       ///< [half the item price]
+  Leftovers fallback = Leftovers::discard;  ///< discard, salvage or donate
+  double bargain_demand = 0.0;  ///< bargain-only customers, as a share of the item's demand
+};
+
+/// Evening markdown: from `from_hour`, units on their last sellable day sell at `price`.
+struct Markdown {
+  int from_hour = 0;    ///< clock hour, after opening and before closing
+  double price = 0.0;   ///< [half the item price]
+  double uplift = 0.0;  ///< bargain-only customers in markdown hours, as a share of the item's
+                        ///< customers in those hours
 };
 
 struct Item {
@@ -50,9 +77,12 @@ struct Item {
   int pack_size = 1;
   std::optional<int> shelf_capacity;  ///< most units on the shelf after a delivery
   Leftovers leftovers = Leftovers::discard;
-  double salvage_value = 0.0;     ///< per unit leaving by salvage
-  double disposal_cost = 0.0;     ///< per wasted unit
-  double stockout_penalty = 0.0;  ///< per customer who leaves without buying (g)
+  std::optional<NextDayDiscount> next_day;  ///< set exactly when leftovers is discount_next_day
+  std::optional<Markdown> markdown;
+  std::vector<Substitute> substitutes;  ///< shares sum to <= 1
+  double salvage_value = 0.0;           ///< per unit leaving by salvage
+  double disposal_cost = 0.0;           ///< per wasted unit
+  double stockout_penalty = 0.0;        ///< per customer who leaves without buying (g)
   std::optional<double> weight_kg;
   std::optional<double> co2e_kg;  ///< CO2e per unit
   DemandSpec demand;
@@ -127,6 +157,7 @@ struct PolicySpec {
   PartSpec censoring;
   PartSpec quantity;
   std::vector<PartSpec> adjustments;
+  bool observe_intraday = false;  ///< `observe: intraday`: sales by hour and sell-out times
 };
 
 /// A validated scenario (scenario.md).
@@ -143,6 +174,7 @@ struct Scenario {
   std::vector<Store> stores;
   std::vector<Item> items;
   double fifo_share = 0.5;
+  double discount_take_rate = 0.5;  ///< share of customers taking a discounted unit when shown
   Goodwill goodwill;
   DemandShocks shocks;
   Logistics logistics;
@@ -154,6 +186,8 @@ struct Scenario {
   int weekday_of(int day) const { return (horizon.start_weekday + day) % kDaysPerWeek; }
   /// Whether store `s` is open on day `day` (its weekdays and closure events).
   bool is_open(int store, int day) const;
+  /// Opening hours per day: the number of hourly time buckets.
+  int hours() const { return calendar.close_hour - calendar.open_hour; }
   /// Product of the demand multipliers of events on `day` for store `s` (1 when none).
   double event_multiplier(int store, int day) const;
 };

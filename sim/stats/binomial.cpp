@@ -5,11 +5,29 @@
 namespace larder {
 
 int binomial_inverse(double u, int n, double p) {
+  return binomial_inverse(u, n, p, p < 1.0 ? std::log1p(-p) : 0.0);
+}
+
+int binomial_inverse(double u, int n, double p, double log_q) {
   if (n <= 0 || p <= 0.0) return 0;
   if (p >= 1.0) return n;
   const double q = 1.0 - p;
   const double dn = static_cast<double>(n);
   const double ratio = p / q;
+  // Small means (a day's sales split, an hour's share of the day's customers): walk up from
+  // P(X = 0) = q^n, a few steps, no log-gamma.
+  const double log_p0 = dn * log_q;
+  if (dn * p <= 30.0 && log_p0 > -600.0) {
+    double pmf = std::exp(log_p0);
+    double cdf = pmf;
+    int k = 0;
+    while (cdf < u && k < n) {
+      pmf *= (dn - k) / (k + 1.0) * ratio;
+      ++k;
+      cdf += pmf;
+    }
+    return k;
+  }
   // Start at the mode, where the pmf is largest and cannot underflow.
   int k = static_cast<int>(std::floor((dn + 1.0) * p));
   if (k > n) k = n;

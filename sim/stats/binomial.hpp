@@ -7,4 +7,7 @@ namespace larder {
 /// Smallest k in [0, n] with P(X <= k) >= u for X ~ Binomial(n, p); u in (0, 1).
 int binomial_inverse(double u, int n, double p);
 
+/// The same with log(1 - p) given, for callers that draw many times with one p.
+int binomial_inverse(double u, int n, double p, double log_q);
+
 }  // namespace larder
