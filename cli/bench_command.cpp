@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <array>
+#include <memory>
 #include <thread>
 
 #include "cli/commands.hpp"
@@ -53,18 +54,21 @@ std::string bench_scenario(const BenchArgs& a, BenchCase c) {
   return y;
 }
 
+/// A scenario and its policies, which may refer to it: built in place, never moved.
 struct Prepared {
   Scenario scenario;
   std::vector<Policy> policies;
 };
 
-Prepared prepare(const BenchArgs& args, BenchCase c) {
+std::unique_ptr<const Prepared> prepare(const BenchArgs& args, BenchCase c) {
   Diagnostics diag;
   auto scenario = parse_scenario(bench_scenario(args, c), "<bench>", diag);
   if (!scenario) throw InputError(diag);
-  auto policies = build_policies(*scenario, diag);
+  auto p = std::make_unique<Prepared>();
+  p->scenario = std::move(*scenario);
+  p->policies = build_policies(p->scenario, diag);
   if (!diag.ok()) throw InputError(diag);
-  return {std::move(*scenario), std::move(policies)};
+  return p;
 }
 
 /// Replications that take about `seconds` on one thread, from a one-replication pilot.
@@ -94,7 +98,8 @@ int bench_command(const BenchArgs& args) {
       "(ses_weekday + in_stock_target, assume normal), {} core(s)\n\n",
       args.stores, args.items, args.days, cores);
 
-  const Prepared daily = prepare(args, BenchCase::daily);
+  const auto daily_case = prepare(args, BenchCase::daily);
+  const Prepared& daily = *daily_case;
   const int reps = size_work(daily, 2.0);
   fmt::print("daily path by thread count\n{:>7}  {:>22}  {:>18}  {:>8}\n", "threads",
              "store-item-days/s", "per thread", "speed-up");
@@ -107,9 +112,9 @@ int bench_command(const BenchArgs& args) {
 
   fmt::print("\ncases on {} thread(s)\n{:>22}  {:<64}\n", max_threads, "store-item-days/s", "case");
   for (const auto& [c, what] : kCases) {
-    const Prepared p = prepare(args, c);
-    const int n = size_work(p, 1.0);
-    fmt::print("{:>20.1f} M  {:<64}\n", rate(p, n, max_threads, per_rep) / 1e6, what);
+    const auto p = prepare(args, c);
+    const int n = size_work(*p, 1.0);
+    fmt::print("{:>20.1f} M  {:<64}\n", rate(*p, n, max_threads, per_rep) / 1e6, what);
   }
 
   const DemandModel demand(daily.scenario);
