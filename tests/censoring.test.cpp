@@ -23,8 +23,12 @@
 
 #include <fmt/format.h>
 
+#include <boost/math/distributions/poisson.hpp>
 #include <catch2/catch.hpp>
+#include <cmath>
 
+#include "sim/engine/demand_model.hpp"
+#include "sim/engine/store_run.hpp"
 #include "tests/fixture.hpp"
 
 namespace larder {
@@ -99,6 +103,61 @@ TEST_CASE("sales-fed forecasts spiral down; normal_tail and product_limit reach 
   // the unplaced mass at the largest sold-out value is the law of min(D, Q) under a steady
   // order Q, i.e. the sales again (product_limit.hpp), and falls outside it.
   CHECK(e[5].mean + 4.0 * e[5].stderr_ < kTarget - kFewPoints);
+}
+
+TEST_CASE("intraday recovers demand from the sell-out time under a known profile",
+          "[policies][censoring][engine]") {
+  // Poisson(lambda) customers a day over a morning-peak profile, Q units every day. By the
+  // time change of a Poisson process, lambda F(T) at the Q-th arrival is Gamma(Q, 1), so on a
+  // sold-out day the estimate Q / F(T) has E[Q / F(T); sold out] = lambda Q / (Q - 1)
+  // P(Poisson(lambda) >= Q - 1) (integrating the Gamma density; the n / (n - 1) excess is the
+  // method's own). Other days feed D: E[D; D < Q]. Values from Boost.Math; the engine records
+  // E[T | the hour's count], which moves the mean by far less than a standard error here.
+  constexpr double kLambda = 20.0;
+  constexpr int kQ = 17;
+  constexpr int kDays = 30000;
+  const Scenario sc = test::scenario_from(R"(
+format: 1
+name: intraday-recovery
+seed: 12
+horizon: { days: 30000, warmup_days: 0 }
+stores: [ { id: s } ]
+items: [ { id: bun, price: 1, unit_cost: 0.5, demand: { base: 20, intraday: morning_peak } } ]
+policies:
+  - name: watch
+    observe: intraday
+    forecast: { method: oracle }
+    censoring: intraday
+    quantity: { rule: fixed, quantity: 17 }
+)");
+  const auto policies = test::policies_for(sc);
+  const DemandModel truth(sc);
+  const SimSetup setup{sc, truth, policies, sc.seed};
+  StoreRun run(setup, 0, 0);
+  auto state = policies[0].censoring->make({sc, truth, 0});
+  std::vector<DemandForecast> predicted(1);
+  std::vector<double> estimate(1);
+  double sum = 0.0;
+  double sum_sq = 0.0;
+  for (int day = 0; day < kDays; ++day) {
+    run.run_days(day, day + 1);
+    state->treat(day, run.observations(0), predicted, estimate);
+    REQUIRE(std::isfinite(estimate[0]));
+    sum += estimate[0];
+    sum_sq += estimate[0] * estimate[0];
+  }
+  const boost::math::poisson_distribution<double> d(kLambda);
+  double below = 0.0;  // E[D; D < Q]
+  for (int k = 0; k < kQ; ++k) below += k * pdf(d, k);
+  const double exact = below + kLambda * kQ / (kQ - 1.0) * cdf(complement(d, kQ - 2));
+  const double mean = sum / kDays;
+  const double se = std::sqrt((sum_sq / kDays - mean * mean) / kDays);
+  INFO("mean estimate " << mean << " +- " << se << ", exact " << exact << ", lambda " << kLambda);
+  CHECK(std::abs(mean - exact) <= 4.0 * se);
+  // And much closer to lambda than the sales are (E[min(D, Q)] = 16.37 here, by scipy).
+  double sales = below;
+  sales += kQ * cdf(complement(d, kQ - 1));
+  CHECK(std::abs(mean - kLambda) < 0.5 * std::abs(sales - kLambda));
 }
 
 /// A scenario whose first policy has the given censoring part.
