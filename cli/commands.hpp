@@ -1,6 +1,7 @@
 #pragma once
 // The subcommands of `larder` (cli.md). Each returns the process exit code.
 
+#include <optional>
 #include <string>
 
 #include "cli/scenario_input.hpp"
@@ -24,6 +25,14 @@ struct RunArgs {
 int run_command(const RunArgs& args);
 
 int check_command(const CommonOptions& args);
+
+struct AllocateArgs {
+  CommonOptions common;
+  std::string policy;      ///< a network_in_stock policy of the scenario
+  std::optional<int> day;  ///< plan on this day [the end of the warm-up]
+  std::string out;         ///< CSV file [larder-out/<scenario>/allocation-<policy>.csv]
+};
+int allocate_command(const AllocateArgs& args);
 
 struct BenchArgs {
   int stores = 100;

@@ -71,6 +71,8 @@ int main(int argc, char** argv) {
       "  larder run                       the built-in demo (scenarios/demo.yaml)\n"
       "  larder check my.yaml             validate a scenario, estimate time and memory\n"
       "  larder run my.yaml -r 200 --out results/\n"
+      "  larder allocate my.yaml --policy per-item-levels\n"
+      "                                   levels a network_in_stock policy would roll out\n"
       "  larder bench                     engine speed on a generated network\n\n"
       "Exit codes: 0 success, 2 bad input, 1 internal error.\n\n" +
       parts_help());
@@ -89,6 +91,18 @@ int main(int argc, char** argv) {
       "validate a scenario and describe it: size, policies, estimated run time and memory");
   add_common(*check_cmd, check, true);
 
+  larder::AllocateArgs allocate;
+  auto* allocate_cmd = app.add_subcommand(
+      "allocate",
+      "the in-stock levels a network_in_stock policy would roll out, per group and store-item");
+  add_common(*allocate_cmd, allocate.common, true);
+  allocate_cmd->add_option("-p,--policy", allocate.policy, "a network_in_stock policy")->required();
+  allocate_cmd->add_option(
+      "--day", allocate.day,
+      "plan on this day, after simulating the days before it [end of warm-up]");
+  allocate_cmd->add_option("-o,--out", allocate.out,
+                           "CSV file [larder-out/<scenario name>/allocation-<policy>.csv]");
+
   larder::BenchArgs bench;
   auto* bench_cmd = app.add_subcommand(
       "bench", "measure engine speed (store-item-days per second) on a generated network");
@@ -106,10 +120,12 @@ int main(int argc, char** argv) {
   }
 
   try {
-    run.common.command_line = check.command_line = joined(argc, argv);
+    run.common.command_line = check.command_line = allocate.common.command_line =
+        joined(argc, argv);
     if (*run_cmd || app.get_subcommands().empty()) return larder::run_command(run);
     if (*check_cmd) return larder::check_command(check);
     if (*bench_cmd) return larder::bench_command(bench);
+    if (*allocate_cmd) return larder::allocate_command(allocate);
   } catch (const larder::InputError& e) {
     std::fputs(e.what(), stderr);
     return 2;

@@ -10,15 +10,18 @@
 
 namespace larder {
 
+struct NetworkTarget;
+
 /// What a rule knows about one item when it orders after close on day `order_day`.
 struct OrderInput {
   /// Demand over the days this delivery serves: from the arrival day until the next delivery
   /// arrives or the units expire (open days only; one day with daily deliveries).
   DemandForecast forecast;
-  int cover_days = 1;  ///< calendar days that window spans
-  int usable_stock = 0;     ///< units on hand that can still be sold on the arrival day
-  int on_order = 0;  ///< units ordered earlier, arriving before the arrival day and still sellable on it
-  int sold_today = 0;       ///< today's full-price sales (0 on closed days)
+  int cover_days = 1;    ///< calendar days that window spans
+  int usable_stock = 0;  ///< units on hand that can still be sold on the arrival day
+  int on_order =
+      0;  ///< units ordered earlier, arriving before the arrival day and still sellable on it
+  int sold_today = 0;  ///< today's full-price sales (0 on closed days)
   /// Units on hand after tonight's ageing by remaining life: stock_by_age[a] can be sold from
   /// tomorrow on for a + 1 more days (size = the item's shelf life; the last slot is empty).
   std::span<const std::int32_t> stock_by_age;
@@ -47,6 +50,9 @@ class OrderRule {
   /// Writes one non-negative order quantity per item (before adjustments and pack rounding).
   virtual void decide(const OrderContext& ctx, std::span<const OrderInput> in,
                       std::span<int> out) = 0;
+  /// Network-planned rules only: the in-stock level of every item at this store, set by the
+  /// runner at each re-plan (network_target.hpp).
+  virtual void set_levels(std::span<const double> /*level_per_item*/) {}
 };
 
 /// A configured quantity rule (immutable, shared by threads).
@@ -54,6 +60,8 @@ class QuantityMethod {
  public:
   virtual ~QuantityMethod() = default;
   virtual std::unique_ptr<OrderRule> make(const StoreView& store) const = 0;
+  /// The network target when the rule's levels are planned across the network, else null.
+  virtual const NetworkTarget* network() const { return nullptr; }
 };
 
 }  // namespace larder

@@ -20,6 +20,7 @@ PolicyRegistry build_registry() {
   register_base_stock(r);
   register_critical_fractile(r);
   register_in_stock_target(r);
+  register_network_in_stock(r);
   register_fill_rate_target(r);
   register_order_up_to(r);
   register_replay(r);

@@ -76,6 +76,7 @@ void register_fixed(PolicyRegistry& r);
 void register_base_stock(PolicyRegistry& r);
 void register_critical_fractile(PolicyRegistry& r);
 void register_in_stock_target(PolicyRegistry& r);
+void register_network_in_stock(PolicyRegistry& r);
 void register_fill_rate_target(PolicyRegistry& r);
 void register_order_up_to(PolicyRegistry& r);
 void register_replay(PolicyRegistry& r);

@@ -169,6 +169,28 @@ TEST_CASE("a run with substitution writes substitution.csv", "[cli]") {
   CHECK(slurp(out / "metrics.csv").find(",discount_revenue,") != std::string::npos);
 }
 
+TEST_CASE("larder allocate prints and writes a network plan", "[cli]") {
+  const fs::path csv = scratch("allocation.csv");
+  const std::string scenario = fmt::format("{}/scenarios/grouping.yaml", LARDER_SOURCE_DIR);
+  const Outcome o =
+      larder(fmt::format("allocate {} --policy abc --out {} --quiet", scenario, csv.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(o.out.find("network (target)") != std::string::npos);
+  const auto rows = lines(slurp(csv));
+  REQUIRE(rows.size() == 1 + 3 + 8 * 12 + 1);  // header, A/B/C, 8 stores x 12 items, network
+  CHECK(rows[0] ==
+        "scope,group,store,item,level,order_basis,open_days,expected_in_stock,"
+        "expected_leftover_units,expected_profit");
+  CHECK(rows[1].rfind("group,A,,,", 0) == 0);
+  CHECK(rows.back().rfind("network,,,,0.7,", 0) == 0);
+  // A policy that is not network_in_stock is bad input, with the names that would do.
+  const Outcome bad = larder(fmt::format("allocate {} --policy flat-70", scenario));
+  CHECK(bad.code == 2);
+  CHECK(bad.err.find("no network_in_stock policy of that name") != std::string::npos);
+  CHECK(bad.err.find("per-item") != std::string::npos);
+}
+
 TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
   std::string text = kSmall;
   text.replace(text.find("shelf_life_days: 2"), 18, "shelf_life_days: 0");

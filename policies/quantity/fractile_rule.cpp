@@ -45,7 +45,13 @@ int forecast_quantile(const DemandForecast& f, DemandFamily family, double p) {
 
 FractileRule::FractileRule(std::vector<double> probability, std::vector<DemandFamily> family,
                            int extra)
-    : probability_(std::move(probability)), family_(std::move(family)), extra_(extra) {
+    : family_(std::move(family)), extra_(extra) {
+  set_probability(probability);
+}
+
+void FractileRule::set_probability(std::span<const double> probability) {
+  probability_.assign(probability.begin(), probability.end());
+  z_.clear();
   for (double p : probability_) z_.push_back(p > 0.0 && p < 1.0 ? normal_quantile(p) : 0.0);
 }
 

@@ -25,6 +25,10 @@ class FractileRule : public OrderRule {
   FractileRule(std::vector<double> probability, std::vector<DemandFamily> family, int extra);
   void decide(const OrderContext& ctx, std::span<const OrderInput> in, std::span<int> out) override;
 
+ protected:
+  /// Replaces the probabilities (one per item).
+  void set_probability(std::span<const double> probability);
+
  private:
   std::vector<double> probability_;
   std::vector<DemandFamily> family_;

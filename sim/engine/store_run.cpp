@@ -278,6 +278,21 @@ std::span<const Observation> StoreRun::observations(int policy) const {
   return lanes_[static_cast<size_t>(policy)]->observed;
 }
 
+void StoreRun::forecasts(int policy, std::span<const int> days,
+                         std::span<DemandForecast> out) const {
+  const Lane& lane = *lanes_[static_cast<size_t>(policy)];
+  const size_t n = static_cast<size_t>(items_);
+  for (size_t d = 0; d < days.size(); ++d) {
+    const std::span<DemandForecast> day = out.subspan(d * n, n);
+    lane.forecaster->predict(days[d], day);
+    lane.censoring->refine(days[d], day);
+  }
+}
+
+void StoreRun::set_levels(int policy, std::span<const double> level_per_item) {
+  lanes_[static_cast<size_t>(policy)]->rule->set_levels(level_per_item);
+}
+
 int StoreRun::units_on_hand(int policy, int item) const {
   const Lane& lane = *lanes_[static_cast<size_t>(policy)];
   const size_t i = static_cast<size_t>(item);

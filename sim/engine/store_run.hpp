@@ -50,6 +50,13 @@ class StoreRun {
   std::span<const Observation> observations(int policy) const;
   /// Units of an item on hand after the close under one policy: the shelf and the next-day tier.
   int units_on_hand(int policy, int item) const;
+  /// Whether the store is open on `day`.
+  bool is_open(int day) const { return open_[static_cast<size_t>(day)] != 0; }
+  /// One policy's forecasts for `days` (after its censoring refinement), [d * items + item]:
+  /// what a network plan reads.
+  void forecasts(int policy, std::span<const int> days, std::span<DemandForecast> out) const;
+  /// Hands one policy's rule the in-stock level of every item (network_in_stock).
+  void set_levels(int policy, std::span<const double> level_per_item);
   /// Hourly buckets per day (1 on the one-bucket and plain paths).
   int buckets() const { return buckets_; }
   /// Bytes of state per store-item and policy (shelf, pipeline, observation, tally, parts).

@@ -9,6 +9,8 @@
 #include <thread>
 
 #include "sim/engine/store_run.hpp"
+#include "sim/runner/network_phases.hpp"
+#include "sim/runner/store_tallies.hpp"
 
 namespace larder {
 
@@ -43,24 +45,10 @@ std::vector<Metric> applicable_metrics(const Scenario& scenario) {
 
 namespace {
 
-/// What one (replication, store) task produced, per policy: per-item tallies and units sold
-/// per substitution pair.
-struct StoreTallies {
-  std::vector<std::vector<Tally>> items;
-  std::vector<std::vector<std::int64_t>> substituted;
-};
-
 StoreTallies simulate_store(const SimSetup& setup, int replication, int store) {
   StoreRun run(setup, replication, store);
   run.run_days(0, setup.scenario.horizon.days);
-  StoreTallies out;
-  for (size_t p = 0; p < setup.policies.size(); ++p) {
-    const auto t = run.tallies(static_cast<int>(p));
-    out.items.emplace_back(t.begin(), t.end());
-    const auto s = run.substitutions(static_cast<int>(p));
-    out.substituted.emplace_back(s.begin(), s.end());
-  }
-  return out;
+  return collect_tallies(run, setup.policies.size());
 }
 
 }  // namespace
@@ -103,11 +91,20 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
 
   const DemandModel demand(scenario);
   const SimSetup setup{scenario, demand, policies, scenario.seed, options.detail};
+  // Network-planned policies run every store of a replication in step (network_phases.hpp).
+  const bool phased = !network_policies(policies).empty();
 
   // Replications run in batches so memory stays bounded: each batch keeps the per-item tallies
-  // of its (replication, store) tasks until they are reduced in a fixed order.
-  const std::size_t per_task = policies.size() * static_cast<size_t>(items) * sizeof(Tally);
-  const std::size_t budget = std::size_t{256} << 20;
+  // of its (replication, store) tasks until they are reduced in a fixed order; in phases, it
+  // keeps every store run of the batch alive.
+  std::size_t per_task = policies.size() * static_cast<size_t>(items) * sizeof(Tally);
+  std::size_t budget = std::size_t{256} << 20;
+  if (phased) {
+    const StoreRun probe(setup, 0, 0);
+    per_task +=
+        (probe.bytes_per_item_and_policy() * policies.size() + 256) * static_cast<size_t>(items);
+    budget = std::size_t{1} << 30;
+  }
   const int batch = static_cast<int>(std::clamp<std::size_t>(
       budget / std::max<std::size_t>(per_task * static_cast<size_t>(stores), 1), 1,
       static_cast<size_t>(std::max(threads * 4, 8))));
@@ -122,12 +119,16 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
     if (options.stop != nullptr && options.stop->load()) break;
     const int n = std::min(batch, reps - done);
     std::vector<StoreTallies> slots(static_cast<size_t>(n * stores));
-    arena.execute([&] {
-      tbb::parallel_for(0, n * stores, [&](int task) {
-        const int rep = options.first_replication + done + task / stores;
-        slots[static_cast<size_t>(task)] = simulate_store(setup, rep, task % stores);
+    if (phased) {
+      slots = run_in_phases(setup, options.first_replication + done, n, arena);
+    } else {
+      arena.execute([&] {
+        tbb::parallel_for(0, n * stores, [&](int task) {
+          const int rep = options.first_replication + done + task / stores;
+          slots[static_cast<size_t>(task)] = simulate_store(setup, rep, task % stores);
+        });
       });
-    });
+    }
     for (int r = 0; r < n; ++r) {
       for (size_t p = 0; p < policies.size(); ++p) {
         std::vector<Tally> per_item(static_cast<size_t>(items));

@@ -1,0 +1,51 @@
+#pragma once
+// Replications with network-planned policies (`network_in_stock`): every store of a
+// replication runs up to a re-plan day, the plan reads every store's forecasts and hands each
+// store its levels, then the stores run on to the next re-plan. Stores run in parallel within
+// a phase and replications plan in parallel between phases; every plan sums in a fixed order,
+// so results stay bit-identical at any thread count.
+
+#include <tbb/task_arena.h>
+
+#include <memory>
+#include <span>
+#include <vector>
+
+#include "policies/network/network_plan.hpp"
+#include "sim/runner/store_tallies.hpp"
+
+namespace larder {
+
+/// The indices of the policies whose quantity rule is planned across the network.
+std::vector<int> network_policies(std::span<const Policy> policies);
+
+/// Every store of a batch of replications, run in phases between re-plans.
+class PhasedRuns {
+ public:
+  /// Replications first_rep .. first_rep + n_reps - 1, every store, at day 0.
+  PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena);
+  /// Runs every store up to `day` (exclusive), re-planning at each re-plan day on the way.
+  void run_until(int day);
+  /// The plan policy `policy` would make for replication `first_rep + rep` on day `day_`.
+  NetworkPlan plan(int rep, int policy, bool detail) const;
+  /// The tallies of task r * stores + s.
+  std::vector<StoreTallies> tallies() const;
+
+ private:
+  void replan(int rep, int policy);
+
+  const SimSetup& setup_;
+  tbb::task_arena& arena_;
+  int n_reps_;
+  int stores_;
+  int day_ = 0;  ///< every store has run the days before this one
+  std::vector<int> planned_;
+  std::vector<std::unique_ptr<StoreRun>> runs_;
+};
+
+/// Runs replications first_rep .. first_rep + n_reps - 1 (every store) over the horizon in
+/// phases; returns the tallies of task r * stores + s.
+std::vector<StoreTallies> run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
+                                        tbb::task_arena& arena);
+
+}  // namespace larder
