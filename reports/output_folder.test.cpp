@@ -4,6 +4,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "reports/breakdown_csv.hpp"
 #include "reports/metrics_csv.hpp"
 #include "reports/replications_csv.hpp"
 #include "reports/sample_run.test.hpp"
@@ -13,13 +14,15 @@ namespace fs = std::filesystem;
 
 using larder::test::read_all;
 
-TEST_CASE("write_run_outputs creates the folder and writes the three files", "[reports]") {
+TEST_CASE("write_run_outputs creates the folder and writes the four files", "[reports]") {
   larder::test::ScratchDir scratch("output-folder");
   const fs::path dir = scratch.path() / "larder-out" / "two-shops";
   larder::RunResult r = larder::test::sample_run();
   larder::write_run_outputs(r, dir);
   CHECK(larder::test::folder_entries(dir) ==
-        std::vector<std::string>{"metrics.csv", "replications.csv", "summary.json"});
+        std::vector<std::string>{"breakdown.csv", "metrics.csv", "replications.csv",
+                                 "summary.json"});
+  CHECK(read_all(dir / "breakdown.csv") == larder::breakdown_csv(r));
   CHECK(read_all(dir / "summary.json") == larder::summary_json_text(r));
   CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
   CHECK(read_all(dir / "replications.csv") == larder::replications_csv(r));
@@ -28,7 +31,7 @@ TEST_CASE("write_run_outputs creates the folder and writes the three files", "[r
   r.policies.resize(1);
   r.values.resize(1);
   larder::write_run_outputs(r, dir);
-  CHECK(larder::test::folder_entries(dir).size() == 3);
+  CHECK(larder::test::folder_entries(dir).size() == 4);
   CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
   CHECK(larder::test::parse_csv(read_all(dir / "replications.csv")).size() == 1 + 5);
 }

@@ -8,6 +8,7 @@
 
 #include "reports/comparison.hpp"
 #include "reports/number_format.hpp"
+#include "sim/stats/summary.hpp"
 
 namespace larder {
 
@@ -165,6 +166,37 @@ std::string difference_block(const RunResult& result, int policy,
   return heading(title, color) + block.render(color);
 }
 
+/// A network_in_stock policy's plan groups (up to 12): planned level, the in-stock the plans
+/// expected, and the in-stock achieved. Empty for other policies.
+std::string plan_group_block(const RunResult& result, size_t policy, bool color) {
+  const PolicyBreakdown& b = result.breakdown[policy];
+  if (b.planned_level.empty()) return {};
+  const size_t groups = b.keys.size() - b.first_group;
+  if (groups > 12) return {};
+  TextBlock block({Align::left, Align::right, Align::right, Align::right});
+  block.add_row(
+      {{"group", {}}, {"planned level", {}}, {"expected in stock", {}}, {"in stock at close", {}}});
+  const auto pct = [](const std::vector<double>& v) {
+    return fmt::format("{:.1f}%", 100.0 * estimate_mean(v).mean);
+  };
+  std::vector<double> v(b.values.size());
+  for (size_t g = 0; g < groups; ++g) {
+    const size_t k = b.first_group + g;
+    std::vector<double> level;
+    std::vector<double> expected;
+    for (size_t r = 0; r < b.planned_level.size(); ++r) {
+      level.push_back(b.planned_level[r][g]);
+      expected.push_back(b.planned_in_stock[r][g]);
+    }
+    for (size_t r = 0; r < b.values.size(); ++r)
+      v[r] = at(b.values[r][k], Metric::in_stock_at_close);
+    block.add_row({{b.keys[k].key, {}}, {pct(level), {}}, {pct(expected), {}}, {pct(v), {}}});
+  }
+  return heading(fmt::format("{}: plan groups, mean over replications", result.policies[policy]),
+                 color) +
+         block.render(color);
+}
+
 }  // namespace
 
 std::vector<Metric> table_metrics(const RunResult& result) {
@@ -187,6 +219,10 @@ std::string comparison_table(const RunResult& result, bool color) {
     if (p == result.baseline) continue;
     out += '\n';
     out += difference_block(result, p, metrics, color);
+  }
+  for (size_t p = 0; p < result.breakdown.size(); ++p) {
+    const std::string groups = plan_group_block(result, p, color);
+    if (!groups.empty()) out += '\n' + groups;
   }
   return out;
 }

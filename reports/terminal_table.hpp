@@ -15,9 +15,11 @@ namespace larder {
 /// profit, waste_kg, co2e_kg.
 std::vector<Metric> table_metrics(const RunResult& result);
 
-/// The comparison as aligned plain text ending in a newline. Numbers are right-aligned and
-/// rounded to what their interval supports; shares are percentages; every line of a block has
-/// the same width. `color` adds ANSI colours (green better, red worse) without changing widths.
+/// The comparison as aligned plain text ending in a newline (then, for each network_in_stock
+/// policy with at most 12 plan groups, its planned levels against the in-stock achieved). Numbers
+/// are right-aligned and rounded to what their interval supports; shares are percentages; every
+/// line of a block has the same width. `color` adds ANSI colours (green better, red worse) without
+/// changing widths.
 std::string comparison_table(const RunResult& result, bool color = false);
 
 }  // namespace larder

@@ -166,6 +166,11 @@ TEST_CASE("a run with substitution writes substitution.csv", "[cli]") {
   CHECK(rows[0] == "policy,from_item,to_item,mean,stderr,ci_low,ci_high,replications");
   CHECK(rows[1].rfind("newsvendor,sourdough,rye,", 0) == 0);
   CHECK(slurp(out / "metrics.csv").find(",served_share,") != std::string::npos);
+  const auto breakdown = lines(slurp(out / "breakdown.csv"));
+  REQUIRE(!breakdown.empty());
+  CHECK(breakdown[0] == "policy,dimension,key,metric,mean,stderr");
+  CHECK(slurp(out / "breakdown.csv").find("\nnewsvendor,type,bread,waste_units,") !=
+        std::string::npos);
   CHECK(slurp(out / "metrics.csv").find(",discount_revenue,") != std::string::npos);
 }
 

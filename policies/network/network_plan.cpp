@@ -62,8 +62,11 @@ NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
     }
   }
   plan.allocation = improve(curves, allocate(curves, target.target));
-  for (int l : plan.allocation.level) {
-    plan.group_level.push_back(plan.level_grid[static_cast<size_t>(l)]);
+  for (size_t g = 0; g < curves.size(); ++g) {
+    const auto l = static_cast<size_t>(plan.allocation.level[g]);
+    plan.group_level.push_back(plan.level_grid[l]);
+    plan.group_in_stock.push_back(curves[g].days > 0 ? curves[g].in_stock[l] / curves[g].days
+                                                     : 0.0);
   }
   const size_t n_store_items = stores.size() * n_items;
   plan.level.resize(n_store_items);

@@ -31,8 +31,9 @@ struct NetworkPlan {
   GroupMap groups;
   std::vector<double> level_grid;
   Allocation allocation;
-  std::vector<double> group_level;  ///< per group
-  std::vector<double> level;        ///< per store-item [store * items + item]
+  std::vector<double> group_level;     ///< per group
+  std::vector<double> group_in_stock;  ///< per group: the in-stock share the plan expects
+  std::vector<double> level;           ///< per store-item [store * items + item]
   /// With `detail`: per store-item, expectations over its planned days at its level.
   std::vector<double> days;      ///< open days planned
   std::vector<double> quantity;  ///< mean order basis Q(L) over those days

@@ -9,6 +9,7 @@
 #include <thread>
 
 #include "sim/engine/store_run.hpp"
+#include "sim/runner/breakdown.hpp"
 #include "sim/runner/network_phases.hpp"
 #include "sim/runner/store_tallies.hpp"
 
@@ -93,6 +94,17 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
   const SimSetup setup{scenario, demand, policies, scenario.seed, options.detail};
   // Network-planned policies run every store of a replication in step (network_phases.hpp).
   const bool phased = !network_policies(policies).empty();
+  std::vector<BreakdownDimensions> dimensions;
+  result.breakdown.resize(policies.size());
+  for (size_t p = 0; p < policies.size(); ++p) {
+    const NetworkTarget* net = policies[p].quantity->network();
+    dimensions.push_back(breakdown_dimensions(scenario, net ? &net->grouping : nullptr));
+    result.breakdown[p].keys = breakdown_keys(dimensions[p]);
+    if (net != nullptr) {
+      result.breakdown[p].first_group =
+          result.breakdown[p].keys.size() - static_cast<size_t>(dimensions[p].maps.back().count());
+    }
+  }
 
   // Replications run in batches so memory stays bounded: each batch keeps the per-item tallies
   // of its (replication, store) tasks until they are reduced in a fixed order; in phases, it
@@ -119,8 +131,11 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
     if (options.stop != nullptr && options.stop->load()) break;
     const int n = std::min(batch, reps - done);
     std::vector<StoreTallies> slots(static_cast<size_t>(n * stores));
+    std::vector<std::vector<PlanRecord>> plans;
     if (phased) {
-      slots = run_in_phases(setup, options.first_replication + done, n, arena);
+      PhasedOutput out = run_in_phases(setup, options.first_replication + done, n, arena);
+      slots = std::move(out.tallies);
+      plans = std::move(out.plans);
     } else {
       arena.execute([&] {
         tbb::parallel_for(0, n * stores, [&](int task) {
@@ -143,6 +158,24 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
         }
         result.values[p].push_back(compute_metrics(per_item, scenario.items));
         if (n_pairs > 0) result.substituted[p].push_back(std::move(per_pair));
+        PolicyBreakdown& b = result.breakdown[p];
+        b.values.push_back(
+            breakdown_values(scenario, dimensions[p],
+                             std::span<const StoreTallies>(slots).subspan(
+                                 static_cast<size_t>(r * stores), static_cast<size_t>(stores)),
+                             p));
+        if (!plans.empty() && b.first_group > 0) {
+          const PlanRecord& rec = plans[static_cast<size_t>(r)][p];
+          const double n_plans = std::max(rec.plans, 1);
+          std::vector<double> level(rec.level.size());
+          std::vector<double> in_stock(rec.in_stock.size());
+          for (size_t g = 0; g < level.size(); ++g) {
+            level[g] = rec.level[g] / n_plans;
+            in_stock[g] = rec.in_stock[g] / n_plans;
+          }
+          b.planned_level.push_back(std::move(level));
+          b.planned_in_stock.push_back(std::move(in_stock));
+        }
       }
     }
     done += n;

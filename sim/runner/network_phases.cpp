@@ -20,7 +20,8 @@ PhasedRuns::PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::ta
       n_reps_(n_reps),
       stores_(static_cast<int>(setup.scenario.stores.size())),
       planned_(network_policies(setup.policies)),
-      runs_(static_cast<size_t>(n_reps * stores_)) {
+      runs_(static_cast<size_t>(n_reps * stores_)),
+      records_(static_cast<size_t>(n_reps), std::vector<PlanRecord>(setup.policies.size())) {
   arena_.execute([&] {
     tbb::parallel_for(0, n_reps_ * stores_, [&](int task) {
       runs_[static_cast<size_t>(task)] =
@@ -50,6 +51,20 @@ NetworkPlan PhasedRuns::plan(int rep, int policy, bool detail) const {
 void PhasedRuns::replan(int rep, int policy) {
   const NetworkPlan p = plan(rep, policy, false);
   const size_t n_items = setup_.scenario.items.size();
+  // Plans on scored days make the record; until the first one, every plan does.
+  PlanRecord& r = records_[static_cast<size_t>(rep)][static_cast<size_t>(policy)];
+  const bool scored = day_ >= setup_.scenario.horizon.warmup_days;
+  if (scored && r.scored_plans == 0) r = PlanRecord{};
+  if (scored || r.scored_plans == 0) {
+    r.level.resize(p.group_level.size(), 0.0);
+    r.in_stock.resize(p.group_level.size(), 0.0);
+    for (size_t g = 0; g < p.group_level.size(); ++g) {
+      r.level[g] += p.group_level[g];
+      r.in_stock[g] += p.group_in_stock[g];
+    }
+    ++r.plans;
+    r.scored_plans += scored ? 1 : 0;
+  }
   for (int s = 0; s < stores_; ++s) {
     runs_[static_cast<size_t>(rep * stores_ + s)]->set_levels(
         policy,
@@ -88,11 +103,11 @@ std::vector<StoreTallies> PhasedRuns::tallies() const {
   return out;
 }
 
-std::vector<StoreTallies> run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
-                                        tbb::task_arena& arena) {
+PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
+                           tbb::task_arena& arena) {
   PhasedRuns runs(setup, first_rep, n_reps, arena);
   runs.run_until(setup.scenario.horizon.days);
-  return runs.tallies();
+  return {runs.tallies(), runs.plans()};
 }
 
 }  // namespace larder

@@ -19,6 +19,15 @@ namespace larder {
 /// The indices of the policies whose quantity rule is planned across the network.
 std::vector<int> network_policies(std::span<const Policy> policies);
 
+/// What the plans of one policy in one replication said, summed over the plans made on scored
+/// days (all plans when none was).
+struct PlanRecord {
+  std::vector<double> level;     ///< per group: sum of planned levels
+  std::vector<double> in_stock;  ///< per group: sum of expected in-stock shares
+  int plans = 0;
+  int scored_plans = 0;
+};
+
 /// Every store of a batch of replications, run in phases between re-plans.
 class PhasedRuns {
  public:
@@ -30,6 +39,8 @@ class PhasedRuns {
   NetworkPlan plan(int rep, int policy, bool detail) const;
   /// The tallies of task r * stores + s.
   std::vector<StoreTallies> tallies() const;
+  /// What the plans said, [rep][policy] (empty records for policies that do not plan).
+  const std::vector<std::vector<PlanRecord>>& plans() const { return records_; }
 
  private:
   void replan(int rep, int policy);
@@ -41,11 +52,17 @@ class PhasedRuns {
   int day_ = 0;  ///< every store has run the days before this one
   std::vector<int> planned_;
   std::vector<std::unique_ptr<StoreRun>> runs_;
+  std::vector<std::vector<PlanRecord>> records_;
+};
+
+struct PhasedOutput {
+  std::vector<StoreTallies> tallies;           ///< task r * stores + s
+  std::vector<std::vector<PlanRecord>> plans;  ///< [rep][policy]
 };
 
 /// Runs replications first_rep .. first_rep + n_reps - 1 (every store) over the horizon in
-/// phases; returns the tallies of task r * stores + s.
-std::vector<StoreTallies> run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
-                                        tbb::task_arena& arena);
+/// phases.
+PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
+                           tbb::task_arena& arena);
 
 }  // namespace larder

@@ -34,6 +34,25 @@ struct SubstitutionPair {
   std::string to;
 };
 
+/// One row key of the breakdown: a dimension (`store`, `item`, an item attribute's key, or
+/// `plan_group` for a network_in_stock policy's groups) and a value of it.
+struct BreakdownKey {
+  std::string dimension;
+  std::string key;
+};
+
+/// Every metric by store, item, item attribute and (network_in_stock) plan group, per
+/// replication: the same definitions as the totals, over a subset of store-item-days.
+struct PolicyBreakdown {
+  std::vector<BreakdownKey> keys;
+  std::vector<std::vector<MetricVector>> values;  ///< [replication][key]
+  /// `plan_group` keys only, else empty: per replication, the mean over the plans made on
+  /// scored days of the planned level and of the in-stock share the plan expected.
+  std::vector<std::vector<double>> planned_level;     ///< [replication][group]
+  std::vector<std::vector<double>> planned_in_stock;  ///< [replication][group]
+  std::size_t first_group = 0;                        ///< index of the first plan_group key
+};
+
 struct RunResult {
   RunInfo info;
   std::vector<std::string> policies;
@@ -45,6 +64,7 @@ struct RunResult {
   std::vector<SubstitutionPair> substitution_pairs;
   /// substituted[policy][replication][pair] = units sold to substitute customers (scored days).
   std::vector<std::vector<std::vector<double>>> substituted;
+  std::vector<PolicyBreakdown> breakdown;  ///< per policy
 
   /// The values of one metric of one policy over replications, in replication order.
   std::vector<double> series(int policy, Metric m) const;
