@@ -5,16 +5,12 @@
 
 #include "cli/commands.hpp"
 #include "cli/progress.hpp"
+#include "sim/runner/memory_limit.hpp"
 #include "sim/runner/run_estimate.hpp"
 
 namespace larder {
 
 namespace {
-std::string bytes_text(std::size_t b) {
-  const double mib = static_cast<double>(b) / (1024.0 * 1024.0);
-  return mib >= 1024.0 ? fmt::format("{:.1f} GiB", mib / 1024.0) : fmt::format("{:.0f} MiB", mib);
-}
-
 std::string policy_text(const PolicySpec& p) {
   std::string s = fmt::format("forecast {}, censoring {}, quantity {}", p.forecast.method,
                               p.censoring.method, p.quantity.method);
@@ -74,7 +70,7 @@ int check_command(const CommonOptions& args) {
   for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(p));
   fmt::print("  estimate      about {} on {} thread{}, about {} of memory\n",
              format_duration(e.seconds), threads, threads == 1 ? "" : "s",
-             bytes_text(e.memory_bytes));
+             format_bytes(e.memory_bytes));
   return 0;
 }
 

@@ -3,6 +3,7 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "cli/scenario_input.hpp"
 
@@ -20,11 +21,33 @@ struct CommonOptions {
 
 struct RunArgs {
   CommonOptions common;
-  std::string out;  ///< "" = larder-out/<scenario name>
+  std::string out;               ///< "" = larder-out/<scenario name>
+  std::string shard;             ///< "K/N": run shard K of N and write shard-K-of-N.json; "" = all
+  std::string max_memory;        ///< refuse a run estimated above this ("4G"); "" = half the RAM
+  std::string precision;         ///< METRIC=HALF_WIDTH: add replications until met ("" = off)
+  int max_replications = 10000;  ///< the most --precision may run
 };
+/// Exit 130 when interrupted (Ctrl-C), with the finished replications in <out>/partial/.
 int run_command(const RunArgs& args);
 
+/// `larder merge DIR...`: shard files of one run into the outputs of a single run.
+struct MergeArgs {
+  std::vector<std::string> inputs;  ///< folders (their shard-K-of-N.json files) or files
+  std::string out;                  ///< "" = larder-out/<scenario name>
+  bool quiet = false;
+  std::string format = "table";  ///< what goes to stdout: table | json
+};
+int merge_command(const MergeArgs& args);
+
 int check_command(const CommonOptions& args);
+
+struct SweepArgs {
+  CommonOptions common;
+  std::vector<std::string> set;   ///< PATH=V1,V2,... (several make a grid)
+  std::vector<std::string> vary;  ///< PATH=-10%,+10%,...: one input at a time
+  std::string out;                ///< folder for sweep.csv [larder-out/<scenario name>]
+};
+int sweep_command(const SweepArgs& args);
 
 struct AllocateArgs {
   CommonOptions common;

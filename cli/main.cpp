@@ -1,5 +1,5 @@
 // `larder`: the command line (cli.md). Parses options, dispatches to a command, and maps
-// failures to exit codes: 0 success, 2 bad input, 1 internal error.
+// failures to exit codes: 0 success, 2 bad input, 1 internal error (130 interrupted: `run`).
 
 #include <fmt/format.h>
 
@@ -71,10 +71,17 @@ int main(int argc, char** argv) {
       "  larder run                       the built-in demo (scenarios/demo.yaml)\n"
       "  larder check my.yaml             validate a scenario, estimate time and memory\n"
       "  larder run my.yaml -r 200 --out results/\n"
+      "  larder run my.yaml --shard 2/4 --out part2/\n"
+      "                                   one of four slices of the replications (any machine)\n"
+      "  larder merge part1/ part2/ part3/ part4/ --out results/\n"
+      "                                   the four shards' results, as one run would give\n"
+      "  larder sweep my.yaml --set policies.flat.quantity.level=0.6,0.7,0.8\n"
+      "                                   the trade-off as one setting varies\n"
       "  larder allocate my.yaml --policy per-item-levels\n"
       "                                   levels a network_in_stock policy would roll out\n"
       "  larder bench                     engine speed on a generated network\n\n"
-      "Exit codes: 0 success, 2 bad input, 1 internal error.\n\n" +
+      "Exit codes: 0 success, 2 bad input, 1 internal error, 130 interrupted (Ctrl-C: `run`\n"
+      "writes the finished replications to <out>/partial/).\n\n" +
       parts_help());
 
   larder::RunArgs run;
@@ -84,12 +91,55 @@ int main(int argc, char** argv) {
   run_cmd->add_option("-o,--out", run.out,
                       "output folder [larder-out/<scenario name>]: summary.json, metrics.csv, "
                       "replications.csv");
+  run_cmd->add_option("--precision", run.precision,
+                      "METRIC=HALF_WIDTH: add replications in batches until every policy's 95% "
+                      "half-width of METRIC is below it (profit=0.5% of the mean, or units: "
+                      "waste_units=20); difference:METRIC=... targets the paired differences");
+  run_cmd
+      ->add_option("--max-replications", run.max_replications,
+                   "the most replications --precision may run [10000]")
+      ->check(CLI::Range(2, 1000000));
+  run_cmd->add_option("--max-memory", run.max_memory,
+                      "refuse to start when the estimated memory exceeds this, e.g. 4G "
+                      "[half of this machine's memory]; `larder check` shows the estimate");
+  run_cmd->add_option("--shard", run.shard,
+                      "K/N: run only the K-th of N contiguous slices of the replications (every "
+                      "shard with the same seed and -r) and write shard-K-of-N.json to the "
+                      "output folder instead of the results, for `larder merge`");
 
   larder::CommonOptions check;
   auto* check_cmd = app.add_subcommand(
       "check",
       "validate a scenario and describe it: size, policies, estimated run time and memory");
   add_common(*check_cmd, check, true);
+
+  larder::SweepArgs sweep;
+  auto* sweep_cmd = app.add_subcommand(
+      "sweep",
+      "rerun a scenario with settings varied on one seed: a grid (--set, sweep.csv with "
+      "frontiers) or one input at a time (--vary, sensitivity.csv and a tornado table)");
+  add_common(*sweep_cmd, sweep.common, true);
+  sweep_cmd->add_option("-s,--set", sweep.set,
+                        "PATH=V1,V2,... to vary; several --set make a grid. PATH walks the YAML by "
+                        "dots, picking list elements by name or id (or * for all), e.g. "
+                        "policies.per-item.quantity.target=0.6,0.7,0.8 or items.*.unit_cost=1,1.2");
+  sweep_cmd->add_option("--vary", sweep.vary,
+                        "PATH=-10%,+10% (or values): sensitivity, one input at a time, with a "
+                        "tornado table of each policy's profit difference against the baseline; "
+                        "a PATH without dots means every item's key, e.g. --vary price=-10%,+10%");
+  sweep_cmd->add_option("-o,--out", sweep.out, "folder for sweep.csv [larder-out/<scenario name>]");
+
+  larder::MergeArgs merge;
+  auto* merge_cmd = app.add_subcommand(
+      "merge", "combine the shard files of `run --shard K/N` runs into the results of one run");
+  merge_cmd
+      ->add_option("DIR", merge.inputs,
+                   "folders holding shard-K-of-N.json files (not their subfolders), or the files")
+      ->required();
+  merge_cmd->add_option("-o,--out", merge.out, "output folder [larder-out/<scenario name>]");
+  merge_cmd->add_flag("-q,--quiet", merge.quiet, "no notes on stderr");
+  merge_cmd->add_option("--format", merge.format, "what goes to stdout: table or json [table]")
+      ->check(CLI::IsMember({"table", "json"}));
 
   larder::AllocateArgs allocate;
   auto* allocate_cmd = app.add_subcommand(
@@ -121,11 +171,13 @@ int main(int argc, char** argv) {
 
   try {
     run.common.command_line = check.command_line = allocate.common.command_line =
-        joined(argc, argv);
+        sweep.common.command_line = joined(argc, argv);
     if (*run_cmd || app.get_subcommands().empty()) return larder::run_command(run);
     if (*check_cmd) return larder::check_command(check);
     if (*bench_cmd) return larder::bench_command(bench);
     if (*allocate_cmd) return larder::allocate_command(allocate);
+    if (*sweep_cmd) return larder::sweep_command(sweep);
+    if (*merge_cmd) return larder::merge_command(merge);
   } catch (const larder::InputError& e) {
     std::fputs(e.what(), stderr);
     return 2;

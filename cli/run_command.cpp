@@ -4,13 +4,41 @@
 #include <filesystem>
 
 #include "cli/commands.hpp"
+#include "cli/interrupt.hpp"
 #include "cli/progress.hpp"
-#include "reports/output_folder.hpp"
+#include "cli/run_outputs.hpp"
+#include "reports/atomic_file.hpp"
+#include "reports/html_report.hpp"
 #include "reports/summary_json.hpp"
 #include "reports/terminal_table.hpp"
+#include "sim/runner/memory_limit.hpp"
 #include "sim/runner/monte_carlo.hpp"
+#include "sim/runner/precision.hpp"
 
 namespace larder {
+
+namespace {
+
+/// --precision, checked against the other options (nullopt when not given).
+std::optional<PrecisionTarget> precision_option(const RunArgs& args, const Scenario& sc) {
+  if (args.precision.empty()) return std::nullopt;
+  Diagnostics d;
+  const auto target = parse_precision(args.precision);
+  if (!target) {
+    d.error({sc.file, 0, 0},
+            fmt::format("--precision {}: expected METRIC=HALF_WIDTH, e.g. profit=0.5% or "
+                        "difference:waste_units=20",
+                        args.precision),
+            "METRIC is a metric name of model.md (see metrics.csv)");
+  } else if (!args.shard.empty()) {
+    d.error({sc.file, 0, 0}, "--precision and --shard cannot be combined",
+            "shards need a fixed number of replications; run --precision once without shards");
+  }
+  if (!d.ok()) throw InputError(d);
+  return target;
+}
+
+}  // namespace
 
 int run_command(const RunArgs& args) {
   PreparedScenario prepared = prepare_scenario(args.common.scenario, args.common.overrides);
@@ -19,29 +47,45 @@ int run_command(const RunArgs& args) {
     fmt::print(stderr, "seed {} was drawn at random; pass --seed {} to repeat this run\n", sc.seed,
                sc.seed);
   }
+  const RunSlice slice = run_slice(args.shard, sc.replications, sc.seed_given);
+  check_memory(sc, prepared.policies, args.common.threads, args.max_memory);
   Progress progress("replications", args.common.quiet);
+  const InterruptGuard interrupt;  // Ctrl-C stops after the current batch (interrupt.hpp)
   RunOptions options;
   options.threads = args.common.threads;
+  options.first_replication = slice.range.first;
+  options.replications = slice.range.count;
+  options.stop = &interrupt.stop_flag();
   options.progress = [&](int done, int total) { progress.update(done, total); };
-  RunResult result = run_policies(sc, prepared.policies, options);
+  const std::optional<PrecisionTarget> precision = precision_option(args, sc);
+  RunResult result = precision ? run_to_precision(sc, prepared.policies, options, *precision,
+                                                  args.max_replications)
+                               : run_policies(sc, prepared.policies, options);
   progress.finish();
-  result.info.command = args.common.command_line;
+  // A shard's results, once merged, are those of the run without --shard.
+  result.info.command = without_shard_option(args.common.command_line);
   if (!sc.seed_given) result.info.command += fmt::format(" --seed {}", sc.seed);
 
   const std::filesystem::path dir = args.out.empty() ? std::filesystem::path("larder-out") / sc.name
                                                      : std::filesystem::path(args.out);
-  write_run_outputs(result, dir);
-  if (args.common.format == "json") {
+  // Stopped early: fewer replications than asked, or a --precision run cut short.
+  const bool stopped =
+      interrupt.interrupted() && (precision || result.info.replications < slice.range.count);
+  const RunOutcome outcome = write_run_results(
+      result,
+      {dir, slice, sc.replications, args.common.scenario, args.common.command_line, stopped});
+  if (outcome.show_results && outcome.exit_code == 0) {  // a whole run, finished: report.html
+    const DailyTrace trace = daily_trace(sc, prepared.policies, slice.range.first);
+    write_file_atomically(dir / "report.html", html_report(result, report_context(sc, trace)));
+  }
+  if (outcome.show_results && args.common.format == "json") {
     fmt::print("{}\n", summary_json(result).dump(2));
-  } else {
+  } else if (outcome.show_results) {
     fmt::print("{}", comparison_table(result));
   }
   std::fflush(stdout);
-  if (!args.common.quiet) {
-    fmt::print(stderr, "results written to {} ({} replications in {})\n", dir.string(),
-               result.info.replications, format_duration(result.info.seconds));
-  }
-  return 0;
+  if (!args.common.quiet || outcome.exit_code != 0) fmt::print(stderr, "{}\n", outcome.note);
+  return outcome.exit_code;
 }
 
 }  // namespace larder

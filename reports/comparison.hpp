@@ -5,6 +5,8 @@
 // they always agree.
 
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "sim/engine/metric.hpp"
 #include "sim/runner/run_result.hpp"
@@ -14,6 +16,15 @@ namespace larder {
 
 /// Coverage of every interval in the reports.
 inline constexpr double kReportLevel = 0.95;
+
+/// How tables of estimates say what their cells are.
+inline constexpr std::string_view kEstimateCaption =
+    "mean ± half-width of the 95% confidence interval";
+
+/// Half the width of an estimate's interval: what tables print after "±".
+inline double half_width(const Estimate& e) {
+  return (e.ci_high - e.ci_low) / 2.0;
+}
 
 /// Mean of metric `m` of policy `policy` over replications, with its 95% t interval.
 Estimate policy_estimate(const RunResult& result, int policy, Metric m);
@@ -30,5 +41,29 @@ bool is_significant(const Estimate& difference);
 /// without a better direction, "no significant difference", or "not available" when the
 /// difference is not a number or has fewer than 2 replications.
 std::string verdict(Metric m, const Estimate& difference);
+
+/// The tone of a verdict, for styling it: a significant difference that is better, worse, or
+/// neutral (a metric without a better direction), or `none` (not significant, not available).
+enum class VerdictTone { better, worse, neutral, none };
+VerdictTone verdict_tone(Metric m, const Estimate& difference);
+
+/// "newsvendor: difference vs habit (paired, 95% CI)": the title of a policy's differences.
+std::string difference_title(const RunResult& result, int policy);
+
+/// Mean over replications of metric `m` of breakdown key `key` of a policy's breakdown, with its
+/// 95% interval: the numbers of breakdown.csv.
+Estimate breakdown_estimate(const PolicyBreakdown& breakdown, std::size_t key, Metric m);
+
+/// One plan group of a network_in_stock policy, each as a mean over replications with its 95%
+/// interval: the level its plans set, the in-stock share they expected, the share achieved.
+struct PlanGroupRow {
+  std::string group;
+  Estimate planned_level;
+  Estimate planned_in_stock;
+  Estimate in_stock_at_close;
+};
+
+/// The plan groups of policy `policy` (empty unless it is network-planned).
+std::vector<PlanGroupRow> plan_group_rows(const RunResult& result, std::size_t policy);
 
 }  // namespace larder

@@ -84,3 +84,33 @@ TEST_CASE("verdicts need an interval", "[reports]") {
   // Every replication differs by the same amount: a zero-width interval away from 0.
   CHECK(larder::is_significant(interval(-1.0, -1.0, -1.0)));
 }
+
+TEST_CASE("verdict_tone agrees with the verdict's words", "[reports][html]") {
+  // The tone styles the verdict (terminal colours, report.html classes); the words, checked by
+  // hand against scipy in terminal_table.test.cpp, decide what it must be.
+  const larder::RunResult r = larder::test::sample_run();
+  int seen[4] = {0, 0, 0, 0};
+  for (int p = 1; p < 3; ++p) {
+    for (const Metric m : r.metrics) {
+      const Estimate d = larder::baseline_difference(r, p, m);
+      const std::string words = larder::verdict(m, d);
+      const larder::VerdictTone tone = larder::verdict_tone(m, d);
+      INFO(words);
+      ++seen[static_cast<int>(tone)];
+      if (words.rfind("better:", 0) == 0) {
+        CHECK(tone == larder::VerdictTone::better);
+      } else if (words.rfind("worse:", 0) == 0) {
+        CHECK(tone == larder::VerdictTone::worse);
+      } else if (words.find("(significant)") != std::string::npos) {
+        CHECK(tone == larder::VerdictTone::neutral);
+      } else {
+        CHECK(tone == larder::VerdictTone::none);
+      }
+    }
+  }
+  for (const int n : seen) CHECK(n > 0);  // the sample covers every tone
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  CHECK(larder::verdict_tone(Metric::profit, interval(nan, nan, nan)) == larder::VerdictTone::none);
+  CHECK(larder::difference_title(r, 2) ==
+        "cautious, v2: difference vs fixed_order (paired, 95% CI)");
+}

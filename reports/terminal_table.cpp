@@ -94,10 +94,16 @@ class TextBlock {
 };
 
 std::string_view verdict_style(Metric m, const Estimate& d) {
-  if (!is_significant(d)) return kDim;
-  const int better = metric_info(m).better;
-  if (better == 0) return {};
-  return (better > 0) == (d.mean > 0.0) ? kGreen : kRed;
+  switch (verdict_tone(m, d)) {
+    case VerdictTone::better:
+      return kGreen;
+    case VerdictTone::worse:
+      return kRed;
+    case VerdictTone::neutral:
+      return {};
+    default:
+      return kDim;
+  }
 }
 
 std::string heading(std::string_view text, bool color) {
@@ -142,7 +148,7 @@ std::string policy_block(const RunResult& result, const std::vector<Metric>& met
     }
     block.add_row(std::move(row));
   }
-  return heading("mean ± half-width of the 95% confidence interval", color) + block.render(color);
+  return heading(kEstimateCaption, color) + block.render(color);
 }
 
 std::string difference_block(const RunResult& result, int policy,
@@ -160,37 +166,23 @@ std::string difference_block(const RunResult& result, int policy,
                    {format_interval(d.ci_low, d.ci_high, unit, decimals), {}},
                    {verdict(m, d), verdict_style(m, d)}});
   }
-  const std::string title = fmt::format("{}: difference vs {} (paired, 95% CI)",
-                                        result.policies[static_cast<size_t>(policy)],
-                                        result.policies[static_cast<size_t>(result.baseline)]);
-  return heading(title, color) + block.render(color);
+  return heading(difference_title(result, policy), color) + block.render(color);
 }
 
 /// A network_in_stock policy's plan groups (up to 12): planned level, the in-stock the plans
 /// expected, and the in-stock achieved. Empty for other policies.
 std::string plan_group_block(const RunResult& result, size_t policy, bool color) {
-  const PolicyBreakdown& b = result.breakdown[policy];
-  if (b.planned_level.empty()) return {};
-  const size_t groups = b.keys.size() - b.first_group;
-  if (groups > 12) return {};
+  const std::vector<PlanGroupRow> rows = plan_group_rows(result, policy);
+  if (rows.empty() || rows.size() > 12) return {};
   TextBlock block({Align::left, Align::right, Align::right, Align::right});
   block.add_row(
       {{"group", {}}, {"planned level", {}}, {"expected in stock", {}}, {"in stock at close", {}}});
-  const auto pct = [](const std::vector<double>& v) {
-    return fmt::format("{:.1f}%", 100.0 * estimate_mean(v).mean);
-  };
-  std::vector<double> v(b.values.size());
-  for (size_t g = 0; g < groups; ++g) {
-    const size_t k = b.first_group + g;
-    std::vector<double> level;
-    std::vector<double> expected;
-    for (size_t r = 0; r < b.planned_level.size(); ++r) {
-      level.push_back(b.planned_level[r][g]);
-      expected.push_back(b.planned_in_stock[r][g]);
-    }
-    for (size_t r = 0; r < b.values.size(); ++r)
-      v[r] = at(b.values[r][k], Metric::in_stock_at_close);
-    block.add_row({{b.keys[k].key, {}}, {pct(level), {}}, {pct(expected), {}}, {pct(v), {}}});
+  const auto pct = [](const Estimate& e) { return fmt::format("{:.1f}%", 100.0 * e.mean); };
+  for (const PlanGroupRow& row : rows) {
+    block.add_row({{row.group, {}},
+                   {pct(row.planned_level), {}},
+                   {pct(row.planned_in_stock), {}},
+                   {pct(row.in_stock_at_close), {}}});
   }
   return heading(fmt::format("{}: plan groups, mean over replications", result.policies[policy]),
                  color) +

@@ -293,6 +293,11 @@ void StoreRun::set_levels(int policy, std::span<const double> level_per_item) {
   lanes_[static_cast<size_t>(policy)]->rule->set_levels(level_per_item);
 }
 
+int StoreRun::demand_today(int policy, int item) const {
+  const size_t i = static_cast<size_t>(item);
+  return goodwill_ ? lanes_[static_cast<size_t>(policy)]->demand[i] : demand_[i];
+}
+
 int StoreRun::units_on_hand(int policy, int item) const {
   const Lane& lane = *lanes_[static_cast<size_t>(policy)];
   const size_t i = static_cast<size_t>(item);

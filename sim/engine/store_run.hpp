@@ -50,6 +50,9 @@ class StoreRun {
   std::span<const Observation> observations(int policy) const;
   /// Units of an item on hand after the close under one policy: the shelf and the next-day tier.
   int units_on_hand(int policy, int item) const;
+  /// Today's demand (primary customers) of an item under one policy, after the day has run:
+  /// the lane's own count when goodwill makes demand policy-specific, else the shared count.
+  int demand_today(int policy, int item) const;
   /// Whether the store is open on `day`.
   bool is_open(int day) const { return open_[static_cast<size_t>(day)] != 0; }
   /// One policy's forecasts for `days` (after its censoring refinement), [d * items + item]:

@@ -5,6 +5,8 @@
 
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/store_run.hpp"
+#include "sim/runner/breakdown.hpp"
+#include "sim/runner/network_phases.hpp"
 
 namespace larder {
 
@@ -41,9 +43,26 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
                                (pilot.bytes_per_item_and_policy() + sizeof(Tally));
   const std::size_t model = static_cast<size_t>(stores * items) * demand.bytes_per_store_item();
+  // Results: the totals and the breakdown rows of every policy and replication.
+  std::size_t rows = 0;
+  for (const Policy& p : policies) {
+    const NetworkTarget* net = p.quantity->network();
+    rows +=
+        1 + breakdown_keys(breakdown_dimensions(scenario, net ? &net->grouping : nullptr)).size();
+  }
   const std::size_t results =
-      static_cast<size_t>(scenario.replications) * policies.size() * sizeof(MetricVector);
-  e.memory_bytes = model + per_task * static_cast<size_t>(workers) * 2 + results +
+      static_cast<size_t>(scenario.replications) * rows * sizeof(MetricVector);
+  // Store runs alive at once: a few per worker, or every store of a batch of replications when
+  // a network_in_stock policy makes the stores run in step (monte_carlo.cpp sizes that batch to
+  // at most 1 GiB, and at least one replication).
+  std::size_t live = per_task * static_cast<size_t>(workers) * 2;
+  if (!network_policies(policies).empty()) {
+    live = std::max(
+        live, std::min(per_task * static_cast<size_t>(stores) *
+                           static_cast<size_t>(scenario.replications),
+                       std::max(std::size_t{1} << 30, per_task * static_cast<size_t>(stores))));
+  }
+  e.memory_bytes = model + live + results +
                    (std::size_t{8} << 20);  // plus a fixed allowance for the program itself
   return e;
 }

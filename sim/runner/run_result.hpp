@@ -68,6 +68,9 @@ struct RunResult {
 
   /// The values of one metric of one policy over replications, in replication order.
   std::vector<double> series(int policy, Metric m) const;
+  /// Adds the rows of `more`, a run of the same scenario and policies over the replications
+  /// that follow; the facts of the run (replications, seconds) are updated.
+  void append(RunResult&& more);
 };
 
 }  // namespace larder

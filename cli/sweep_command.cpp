@@ -1,0 +1,126 @@
+// `larder sweep SCENARIO --set PATH=V1,V2,...`: the scenario rerun at every point of the grid
+// of settings on one seed (common random numbers); prints the key metrics per point and policy
+// with the frontier marks and writes sweep.csv.
+
+#include <fmt/format.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "cli/commands.hpp"
+#include "cli/demo_scenario.hpp"
+#include "reports/atomic_file.hpp"
+#include "reports/comparison.hpp"
+#include "reports/number_format.hpp"
+#include "reports/output_folder.hpp"
+#include "reports/sensitivity.hpp"
+#include "reports/sweep_csv.hpp"
+
+namespace larder {
+
+namespace {
+
+std::string read_text(const std::string& path) {
+  std::ifstream in(path);
+  if (!in) {
+    Diagnostics d;
+    d.error({path, 0, 0}, "cannot read the scenario file");
+    throw InputError(d);
+  }
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+std::vector<Setting> read_settings(const std::vector<std::string>& raw, const std::string& label,
+                                   const char* option) {
+  std::vector<Setting> out;
+  Diagnostics d;
+  for (const std::string& r : raw) {
+    auto s = parse_setting(r);
+    if (!s) {
+      d.error({label, 0, 0}, fmt::format("--{} {}: expected PATH=V1,V2,...", option, r),
+              "e.g. --set policies.per-item.quantity.target=0.6,0.7,0.8 or --vary price=-10%,+10%");
+      continue;
+    }
+    out.push_back(std::move(*s));
+  }
+  if (!d.ok()) throw InputError(d);
+  return out;
+}
+
+}  // namespace
+
+int sweep_command(const SweepArgs& args) {
+  SweepSpec spec;
+  spec.label = args.common.scenario.empty() ? "<demo>" : args.common.scenario;
+  spec.text = args.common.scenario.empty() ? demo_scenario_text() : read_text(args.common.scenario);
+  spec.settings = read_settings(args.set, spec.label, "set");
+  spec.varies = read_settings(args.vary, spec.label, "vary");
+  if (spec.settings.empty() == spec.varies.empty()) {
+    Diagnostics d;
+    d.error({spec.label, 0, 0},
+            "give --set (a grid of settings) or --vary (one at a time), not both",
+            "--set policies.<name>.quantity.level=0.6,0.8, or --vary price=-10%,+10%");
+    throw InputError(d);
+  }
+  spec.replications = args.common.overrides.replications;
+  spec.seed = args.common.overrides.seed;
+  spec.options.threads = args.common.threads;
+  const std::vector<SweepPoint> points = run_sweep(spec, [&](int k, int n) {
+    if (!args.common.quiet) fmt::print(stderr, "sweep: point {} of {}\n", k + 1, n);
+  });
+
+  const RunInfo& info = points.front().result.info;
+  const std::filesystem::path dir = args.out.empty()
+                                        ? std::filesystem::path("larder-out") / info.scenario_name
+                                        : std::filesystem::path(args.out);
+  ensure_directory(dir);
+  if (!spec.varies.empty()) {
+    write_file_atomically(dir / "sensitivity.csv", sensitivity_csv(points));
+    const RunResult& base = points.front().result;
+    fmt::print("sensitivity of {} ({} replications per point, seed {})\n", spec.label,
+               info.replications, info.seed);
+    fmt::print("{}", tornado_table(tornado(spec.varies, points),
+                                   base.policies[static_cast<size_t>(base.baseline)]));
+    if (!args.common.quiet) {
+      fmt::print(stderr, "sensitivity written to {}\n", (dir / "sensitivity.csv").string());
+    }
+    return 0;
+  }
+  write_file_atomically(dir / "sweep.csv", sweep_csv(spec.settings, points));
+
+  const FrontierMarks marks = sweep_frontiers(points);
+  fmt::print("sweep of {} ({} points, {} replications each, seed {})\n", spec.label, points.size(),
+             info.replications, info.seed);
+  fmt::print(
+      "frontier marks: W = no other row has less waste and more in stock; "
+      "P = none has less waste and more profit\n\n");
+  std::string head = fmt::format("{:>5}", "point");
+  for (const Setting& s : spec.settings)
+    head += fmt::format("  {:>12}", s.path.substr(s.path.rfind('.') + 1));
+  head += fmt::format("  {:<18} {:>9} {:>9} {:>9} {:>14}  {}\n", "policy", "waste", "in stock",
+                      "fill rate", "profit", "frontier");
+  fmt::print("{}", head);
+  size_t row = 0;
+  for (size_t i = 0; i < points.size(); ++i) {
+    const RunResult& r = points[i].result;
+    for (size_t p = 0; p < r.policies.size(); ++p, ++row) {
+      const int k = static_cast<int>(p);
+      std::string line = fmt::format("{:>5}", i + 1);
+      for (const std::string& v : points[i].values) line += fmt::format("  {:>12}", v);
+      line += fmt::format("  {:<18} {:>8.1f}% {:>8.1f}% {:>8.1f}% {:>14.0f}  {}{}\n", r.policies[p],
+                          100 * policy_estimate(r, k, Metric::waste_share).mean,
+                          100 * policy_estimate(r, k, Metric::in_stock_at_close).mean,
+                          100 * policy_estimate(r, k, Metric::fill_rate).mean,
+                          policy_estimate(r, k, Metric::profit).mean,
+                          marks.waste_in_stock[row] ? "W" : "", marks.profit_waste[row] ? "P" : "");
+      fmt::print("{}", line);
+    }
+  }
+  if (!args.common.quiet) fmt::print(stderr, "sweep written to {}\n", (dir / "sweep.csv").string());
+  return 0;
+}
+
+}  // namespace larder
