@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "cli/mpi_world.hpp"
 #include "cli/scenario_input.hpp"
 
 namespace larder {
@@ -26,6 +27,7 @@ struct RunArgs {
   std::string max_memory;        ///< refuse a run estimated above this ("4G"); "" = half the RAM
   std::string precision;         ///< METRIC=HALF_WIDTH: add replications until met ("" = off)
   int max_replications = 10000;  ///< the most --precision may run
+  MpiWorld mpi;                  ///< this rank under mpirun (rank 0 of 1 otherwise)
 };
 /// Exit 130 when interrupted (Ctrl-C), with the finished replications in <out>/partial/.
 int run_command(const RunArgs& args);

@@ -57,6 +57,7 @@ std::string parts_help() {
 }  // namespace
 
 int main(int argc, char** argv) {
+  const larder::MpiSession mpi(argc, argv);  // under mpirun (built with LARDER_MPI): the ranks
   CLI::App app{
       "larder: a Monte Carlo simulator of ordering policies for fresh food.\n"
       "It replays stores and items day by day with random demand and scores policies on\n"
@@ -172,6 +173,8 @@ int main(int argc, char** argv) {
   try {
     run.common.command_line = check.command_line = allocate.common.command_line =
         sweep.common.command_line = joined(argc, argv);
+    run.mpi = mpi.world();
+    if (run.mpi.rank != 0) run.common.quiet = true;  // rank 0 speaks for the run
     if (*run_cmd || app.get_subcommands().empty()) return larder::run_command(run);
     if (*check_cmd) return larder::check_command(check);
     if (*bench_cmd) return larder::bench_command(bench);

@@ -5,15 +5,18 @@
 
 #include "cli/commands.hpp"
 #include "cli/interrupt.hpp"
+#include "cli/mpi_world.hpp"
 #include "cli/progress.hpp"
 #include "cli/run_outputs.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/html_report.hpp"
+#include "reports/shard_file.hpp"
 #include "reports/summary_json.hpp"
 #include "reports/terminal_table.hpp"
 #include "sim/runner/memory_limit.hpp"
 #include "sim/runner/monte_carlo.hpp"
 #include "sim/runner/precision.hpp"
+#include "sim/runner/shard_merge.hpp"
 
 namespace larder {
 
@@ -47,7 +50,17 @@ int run_command(const RunArgs& args) {
     fmt::print(stderr, "seed {} was drawn at random; pass --seed {} to repeat this run\n", sc.seed,
                sc.seed);
   }
-  const RunSlice slice = run_slice(args.shard, sc.replications, sc.seed_given);
+  // Under mpirun every rank runs one slice, as --shard rank+1/size would (mpi_world.hpp).
+  const bool mpi = args.mpi.size > 1;
+  if (mpi && !args.shard.empty()) {
+    Diagnostics d;
+    d.error({sc.file, 0, 0}, "--shard cannot be combined with mpirun",
+            "mpirun already splits the replications among its ranks");
+    throw InputError(d);
+  }
+  const RunSlice slice =
+      run_slice(mpi ? fmt::format("{}/{}", args.mpi.rank + 1, args.mpi.size) : args.shard,
+                sc.replications, sc.seed_given);
   check_memory(sc, prepared.policies, args.common.threads, args.max_memory);
   Progress progress("replications", args.common.quiet);
   const InterruptGuard interrupt;  // Ctrl-C stops after the current batch (interrupt.hpp)
@@ -58,6 +71,11 @@ int run_command(const RunArgs& args) {
   options.stop = &interrupt.stop_flag();
   options.progress = [&](int done, int total) { progress.update(done, total); };
   const std::optional<PrecisionTarget> precision = precision_option(args, sc);
+  if (mpi && precision) {
+    Diagnostics d;
+    d.error({sc.file, 0, 0}, "--precision cannot be combined with mpirun");
+    throw InputError(d);
+  }
   RunResult result = precision ? run_to_precision(sc, prepared.policies, options, *precision,
                                                   args.max_replications)
                                : run_policies(sc, prepared.policies, options);
@@ -68,14 +86,31 @@ int run_command(const RunArgs& args) {
 
   const std::filesystem::path dir = args.out.empty() ? std::filesystem::path("larder-out") / sc.name
                                                      : std::filesystem::path(args.out);
+  RunSlice written = slice;
+  if (mpi) {
+    // Rank 0 gathers every rank's slice and merges them into the whole run.
+    const RunTarget mine{dir, slice, sc.replications, args.common.scenario,
+                         args.common.command_line};
+    const std::vector<std::string> texts =
+        gather_on_root(shard_file_text(as_shard(result, mine, !interrupt.interrupted())));
+    if (args.mpi.rank != 0) return 0;
+    std::vector<ShardSource> sources;
+    for (size_t r = 0; r < texts.size(); ++r) {
+      sources.push_back({fmt::format("rank {}", r), parse_shard_file(texts[r])});
+    }
+    const std::string command = result.info.command;
+    result = merge_shards(sources, "the mpirun ranks");
+    result.info.command = command;
+    written = RunSlice{std::nullopt, {0, sc.replications}};
+  }
   // Stopped early: fewer replications than asked, or a --precision run cut short.
   const bool stopped =
-      interrupt.interrupted() && (precision || result.info.replications < slice.range.count);
+      interrupt.interrupted() && (precision || result.info.replications < written.range.count);
   const RunOutcome outcome = write_run_results(
       result,
-      {dir, slice, sc.replications, args.common.scenario, args.common.command_line, stopped});
+      {dir, written, sc.replications, args.common.scenario, args.common.command_line, stopped});
   if (outcome.show_results && outcome.exit_code == 0) {  // a whole run, finished: report.html
-    const DailyTrace trace = daily_trace(sc, prepared.policies, slice.range.first);
+    const DailyTrace trace = daily_trace(sc, prepared.policies, written.range.first);
     write_file_atomically(dir / "report.html", html_report(result, report_context(sc, trace)));
   }
   if (outcome.show_results && args.common.format == "json") {

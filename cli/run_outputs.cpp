@@ -41,6 +41,8 @@ void clear_partial(const fs::path& dir, const RunSlice& slice) {
   fs::remove(partial, ec);  // only if empty
 }
 
+}  // namespace
+
 ShardResult as_shard(const RunResult& result, const RunTarget& target, bool complete) {
   ShardResult s;
   s.shard = *target.slice.shard;
@@ -54,6 +56,8 @@ ShardResult as_shard(const RunResult& result, const RunTarget& target, bool comp
   s.result = result;
   return s;
 }
+
+namespace {
 
 std::string range_text(int first, int count) {
   return count == 1 ? fmt::format("replication {}", first)

@@ -11,6 +11,7 @@
 
 #include "cli/shard_option.hpp"
 #include "sim/runner/run_result.hpp"
+#include "sim/runner/shard.hpp"
 
 namespace larder {
 
@@ -30,6 +31,9 @@ struct RunOutcome {
   bool show_results = false;  ///< print the comparison (not for a shard, nor for nothing)
   std::string note;           ///< one line for stderr: what went where
 };
+
+/// The shard file content of a finished or stopped slice (`target.slice.shard` set).
+ShardResult as_shard(const RunResult& result, const RunTarget& target, bool complete);
 
 /// Writes `result` (the replications of `target.slice` that finished, from its first: all of
 /// them unless `target.stopped`) and says what it did.
