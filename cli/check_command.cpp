@@ -71,6 +71,9 @@ int check_command(const CommonOptions& args) {
   fmt::print("  estimate      about {} on {} thread{}, about {} of memory\n",
              format_duration(e.seconds), threads, threads == 1 ? "" : "s",
              format_bytes(e.memory_bytes));
+  const std::size_t limit = default_memory_limit();
+  fmt::print("  memory limit  {} (larder run's default --max-memory){}\n", format_bytes(limit),
+             e.memory_bytes > limit ? ": this run would be refused" : "");
   return 0;
 }
 

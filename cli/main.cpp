@@ -78,6 +78,10 @@ int main(int argc, char** argv) {
       "                                   the four shards' results, as one run would give\n"
       "  larder sweep my.yaml --set policies.flat.quantity.level=0.6,0.7,0.8\n"
       "                                   the trade-off as one setting varies\n"
+      "  larder sweep my.yaml --vary price=-10%,+10% --vary unit_cost=-20%,+20%\n"
+      "                                   does the ranking survive uncertain costs?\n"
+      "  larder run my.yaml --precision profit=0.5%\n"
+      "                                   as many replications as that precision needs\n"
       "  larder allocate my.yaml --policy per-item-levels\n"
       "                                   levels a network_in_stock policy would roll out\n"
       "  larder bench                     engine speed on a generated network\n\n"
@@ -91,7 +95,8 @@ int main(int argc, char** argv) {
   add_common(*run_cmd, run.common, false);
   run_cmd->add_option("-o,--out", run.out,
                       "output folder [larder-out/<scenario name>]: summary.json, metrics.csv, "
-                      "replications.csv");
+                      "replications.csv, breakdown.csv, substitution.csv (with substitutes), "
+                      "report.html");
   run_cmd->add_option("--precision", run.precision,
                       "METRIC=HALF_WIDTH: add replications in batches until every policy's 95% "
                       "half-width of METRIC is below it (profit=0.5% of the mean, or units: "
