@@ -1,13 +1,14 @@
 // `larder allocate SCENARIO --policy NAME`: the levels a `network_in_stock` policy would roll
 // out (cli.md). One replication runs through the warm-up (or to --day) with the policy re-planning
 // as it would in `larder run`; then the policy plans on that day from its own forecasts, and the
-// plan is printed per group and written per group and store-item as CSV.
+// plan is printed per group, written per group and store-item as CSV, and shown as an HTML page.
 
 #include <fmt/format.h>
 
 #include <filesystem>
 
 #include "cli/commands.hpp"
+#include "reports/allocation_report.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/csv.hpp"
 #include "reports/output_folder.hpp"
@@ -114,35 +115,61 @@ int allocate_command(const AllocateArgs& args) {
   if (file.has_parent_path()) ensure_directory(file.parent_path());
   write_file_atomically(file, csv);
 
-  fmt::print("{}: network_in_stock, target {:.0f}% in stock at close, groups {}\n",
-             prepared.policies[static_cast<size_t>(k)].name, 100 * target.target,
-             to_string(target.grouping));
+  AllocationPage page;
+  page.scenario = sc.name;
+  page.policy = prepared.policies[static_cast<size_t>(k)].name;
+  page.grouping = to_string(target.grouping);
+  page.currency = sc.currency;
+  page.day = day;
+  page.seed = sc.seed;
+  const auto row = [&](const std::string& name, double level, const Totals& t) {
+    const double per = t.days > 0 ? 1.0 / t.days : 0.0;
+    const double store_days = std::max(t.days / std::max(t.store_items, 1), 1.0);
+    return AllocationRow{name,
+                         level,
+                         t.store_items,
+                         t.in_stock * per,
+                         t.quantity * per,
+                         t.leftover / store_days,
+                         t.profit / store_days};
+  };
+  for (size_t g = 0; g < groups.size(); ++g) {
+    page.groups.push_back(row(plan.groups.names[g], plan.group_level[g], groups[g]));
+  }
+  page.network = row("network", target.target, network);
+  page.note = fmt::format(
+      "multiplier {:.4g} per expected in-stock store-item-day; the plan is within {:.4g} "
+      "{} of the best possible for the week{}",
+      plan.allocation.lambda, plan.allocation.gap_bound, sc.currency,
+      plan.allocation.feasible ? ""
+                               : " (the target cannot be met: every group at its "
+                                 "highest level)");
+  const std::filesystem::path html =
+      file.parent_path() / fmt::format("allocation-{}.html", page.policy);
+  write_file_atomically(html, allocation_html(page));
+
+  fmt::print("{}: network_in_stock, target {:.0f}% in stock at close, groups {}\n", page.policy,
+             100 * target.target, page.grouping);
   fmt::print(
       "planned on day {} from the policy's own forecasts of the next {} days "
       "(replication 0, seed {})\n\n",
       day, kPlanDays, sc.seed);
   fmt::print("{:<24} {:>7} {:>11} {:>10} {:>14} {:>14} {:>14}\n", "group", "level", "store-items",
              "in stock", "order basis", "leftover/day", "profit/day");
-  const auto line = [&](const std::string& name, double level, const Totals& t) {
-    const double per = t.days > 0 ? 1.0 / t.days : 0.0;
-    const double store_days = t.days / std::max(t.store_items, 1);
-    fmt::print("{:<24} {:>6.0f}% {:>11} {:>9.1f}% {:>14.1f} {:>14.1f} {:>14.2f}\n", name,
-               100 * level, t.store_items, 100 * t.in_stock * per, t.quantity * per,
-               t.leftover / std::max(store_days, 1.0), t.profit / std::max(store_days, 1.0));
+  const auto line = [](const AllocationRow& r) {
+    fmt::print("{:<24} {:>6.0f}% {:>11} {:>9.1f}% {:>14.1f} {:>14.1f} {:>14.2f}\n", r.group,
+               100 * r.level, r.store_items, 100 * r.in_stock, r.order_basis, r.leftover_per_day,
+               r.profit_per_day);
   };
-  for (size_t g = 0; g < groups.size() && g < 40; ++g) {
-    line(plan.groups.names[g], plan.group_level[g], groups[g]);
-  }
+  for (size_t g = 0; g < page.groups.size() && g < 40; ++g) line(page.groups[g]);
   if (groups.size() > 40) fmt::print("... {} more groups in the CSV\n", groups.size() - 40);
-  line("network (target)", target.target, network);
-  fmt::print(
-      "\nmultiplier {:.4g} per expected in-stock store-item-day; the plan is within {:.4g} "
-      "{} of the best possible for the week{}\n",
-      plan.allocation.lambda, plan.allocation.gap_bound, sc.currency,
-      plan.allocation.feasible ? ""
-                               : " (the target cannot be met: every group at its "
-                                 "highest level)");
-  if (!args.common.quiet) fmt::print(stderr, "allocation written to {}\n", file.string());
+  AllocationRow total = page.network;
+  total.group = "network (target)";
+  line(total);
+  fmt::print("\n{}\n", page.note);
+  if (!args.common.quiet) {
+    fmt::print(stderr, "allocation written to {} and {}\n", file.string(), html.string());
+  }
   return 0;
 }
 

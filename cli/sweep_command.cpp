@@ -1,6 +1,6 @@
 // `larder sweep SCENARIO --set PATH=V1,V2,...`: the scenario rerun at every point of the grid
 // of settings on one seed (common random numbers); prints the key metrics per point and policy
-// with the frontier marks and writes sweep.csv.
+// with the frontier marks and writes sweep.csv and sweep.html.
 
 #include <fmt/format.h>
 
@@ -16,6 +16,7 @@
 #include "reports/output_folder.hpp"
 #include "reports/sensitivity.hpp"
 #include "reports/sweep_csv.hpp"
+#include "reports/sweep_report.hpp"
 
 namespace larder {
 
@@ -80,18 +81,21 @@ int sweep_command(const SweepArgs& args) {
   if (!spec.varies.empty()) {
     write_file_atomically(dir / "sensitivity.csv", sensitivity_csv(points));
     const RunResult& base = points.front().result;
+    const std::vector<TornadoRow> rows = tornado(spec.varies, points);
+    write_file_atomically(dir / "sweep.html", sensitivity_html(points, rows));
     fmt::print("sensitivity of {} ({} replications per point, seed {})\n", spec.label,
                info.replications, info.seed);
-    fmt::print("{}", tornado_table(tornado(spec.varies, points),
-                                   base.policies[static_cast<size_t>(base.baseline)]));
+    fmt::print("{}", tornado_table(rows, base.policies[static_cast<size_t>(base.baseline)]));
     if (!args.common.quiet) {
-      fmt::print(stderr, "sensitivity written to {}\n", (dir / "sensitivity.csv").string());
+      fmt::print(stderr, "sensitivity written to {} and {}\n", (dir / "sensitivity.csv").string(),
+                 (dir / "sweep.html").string());
     }
     return 0;
   }
   write_file_atomically(dir / "sweep.csv", sweep_csv(spec.settings, points));
 
   const FrontierMarks marks = sweep_frontiers(points);
+  write_file_atomically(dir / "sweep.html", sweep_html(spec.settings, points, marks));
   fmt::print("sweep of {} ({} points, {} replications each, seed {})\n", spec.label, points.size(),
              info.replications, info.seed);
   fmt::print(
@@ -119,7 +123,10 @@ int sweep_command(const SweepArgs& args) {
       fmt::print("{}", line);
     }
   }
-  if (!args.common.quiet) fmt::print(stderr, "sweep written to {}\n", (dir / "sweep.csv").string());
+  if (!args.common.quiet) {
+    fmt::print(stderr, "sweep written to {} and {}\n", (dir / "sweep.csv").string(),
+               (dir / "sweep.html").string());
+  }
   return 0;
 }
 

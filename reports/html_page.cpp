@@ -132,4 +132,10 @@ std::string html_details(std::string_view summary, std::string_view content, boo
                      open ? R"( open="open")" : "", xml_escape(summary), content);
 }
 
+std::string html_cautions(const std::vector<std::string>& cautions) {
+  std::string out = "<aside class=\"caution\" id=\"cautions\">\n<h2>Cautions</h2>\n";
+  for (const std::string& c : cautions) out += html_paragraph(c);
+  return out + "</aside>\n";
+}
+
 }  // namespace larder

@@ -49,6 +49,9 @@ std::string html_paragraph(std::string_view text, std::string_view css_class = {
 /// A <figure> holding `svg` (markup) with an escaped caption.
 std::string html_figure(std::string_view svg, std::string_view caption);
 
+/// The cautions box (<aside id="cautions">), one paragraph of escaped text per caution.
+std::string html_cautions(const std::vector<std::string>& cautions);
+
 /// A <details> block whose <summary> is `summary` (escaped), open when `open`.
 std::string html_details(std::string_view summary, std::string_view content, bool open);
 

@@ -82,12 +82,6 @@ std::string contents(std::string_view body) {
   return out + "<li><a href=\"#cautions\">Cautions</a></li></ul></nav>\n";
 }
 
-std::string cautions_box(const ReportContext& context) {
-  std::string out = "<aside class=\"caution\" id=\"cautions\">\n<h2>Cautions</h2>\n";
-  for (const std::string& c : context.cautions) out += html_paragraph(c);
-  return out + "</aside>\n";
-}
-
 std::string fact(std::string_view term, std::string_view markup) {
   return fmt::format("<dt>{}</dt><dd>{}</dd>\n", xml_escape(term), markup);
 }
@@ -303,7 +297,7 @@ std::string page_footer(const RunResult& r) {
 }  // namespace
 
 std::string html_report(const RunResult& result, const ReportContext& context) {
-  std::string body = cautions_box(context);
+  std::string body = html_cautions(context.cautions);
   body += simulated_section(result, context);
   body += comparison_section(result);
   body += charts_section(result);

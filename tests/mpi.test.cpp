@@ -15,7 +15,7 @@ namespace {
 
 namespace fs = std::filesystem;
 
-std::string slurp(const fs::path& p) {
+[[maybe_unused]] std::string slurp(const fs::path& p) {
   std::ifstream in(p);
   std::stringstream s;
   s << in.rdbuf();
