@@ -77,8 +77,12 @@ RunResult run_to_precision(const Scenario& scenario, const std::vector<Policy>& 
     // The half-width shrinks like 1 / sqrt(n): aim a little past the estimate.
     const int have = result.info.replications;
     const double want = std::isfinite(ratio) ? 1.1 * have * ratio * ratio : 2.0 * have;
-    const int more = std::clamp(static_cast<int>(std::ceil(want)) - have, std::max(1, have / 10),
-                                max_replications - have);
+    // Capped in floating point first: a huge ratio must not overflow the conversion to int.
+    const int target_n =
+        static_cast<int>(std::ceil(std::min(want, static_cast<double>(max_replications))));
+    // At least a tenth more, never past the maximum (which wins when the two disagree).
+    const int more =
+        std::min(std::max(target_n - have, std::max(1, have / 10)), max_replications - have);
     options.first_replication = have;
     options.replications = more;
     result.append(run_policies(scenario, policies, options));
