@@ -187,7 +187,7 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
     if (!detailed_) continue;
     lane.next_day.assign(static_cast<size_t>(items_), 0);
     lane.pools.assign(static_cast<size_t>(items_), Pools{});
-    lane.substituted.assign(pairs_.size(), 0);
+    lane.substituted.assign(pair_to_.size(), 0);
     if (goodwill_) {
       lane.acceptors.assign(static_cast<size_t>(items_ * buckets_), 0);
       lane.others.assign(static_cast<size_t>(items_ * buckets_), 0);
@@ -247,17 +247,17 @@ void StoreRun::setup_detail() {
       choice_streams_.push_back(make_stream(key(Purpose::tier_choice)));
     }
     substitution_streams_.push_back(make_stream(key(Purpose::substitution)));
-    rt.pairs_begin = static_cast<int>(pairs_.size());
+    rt.pairs_begin = static_cast<int>(pair_to_.size());
     std::vector<double> sub_shares;
     for (const Substitute& sub : it.substitutes) {
-      pairs_.push_back({i, sub.item, sub.share});
+      pair_to_.push_back(sub.item);
       sub_shares.push_back(sub.share);
     }
-    rt.pairs_end = static_cast<int>(pairs_.size());
+    rt.pairs_end = static_cast<int>(pair_to_.size());
     substitute_plans_.push_back(plan_split(sub_shares, false));
     substitute_split_.resize(std::max(substitute_split_.size(), sub_shares.size()));
   }
-  substitution_u_.assign(pairs_.size() * hb, 0.0);
+  substitution_u_.assign(pair_to_.size() * hb, 0.0);
   choice_u_.assign(choice_streams_.size(), 0.0);
   acceptors_.assign(static_cast<size_t>(items_) * hb, 0);
   others_.assign(static_cast<size_t>(items_) * hb, 0);
@@ -593,7 +593,7 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
         const size_t k = static_cast<size_t>(rt.pairs_begin) + j;
         const int x = went[j];
         // Substitute customers take a full-price unit when there is one.
-        Pools& to = pools[static_cast<size_t>(pairs_[k].to)];
+        Pools& to = pools[static_cast<size_t>(pair_to_[k])];
         const int served = to.serve(0, x);
         to.substitute += served;
         to.arrivals += x;

@@ -108,14 +108,8 @@ class StoreRun {
     int intraday_n = 0;         ///< intraday uniforms per day
     int choice = -1;            ///< index into choice_streams_ and choice_u_, -1 without tiers
     double bargain_rate = 0.0;  ///< bargain-only customers per unit of the day's mean demand
-    int pairs_begin = 0;        ///< the item's substitutes in pairs_
+    int pairs_begin = 0;        ///< the item's substitutes in pair_to_
     int pairs_end = 0;
-  };
-  /// A customer who finds `from` out tries `to` with probability `share`.
-  struct Pair {
-    int from;
-    int to;
-    double share;
   };
   std::vector<ItemRuntime> runtime_;
   std::vector<int> demand_;       ///< today's demand per item (shared unless goodwill is on)
@@ -138,7 +132,9 @@ class StoreRun {
   std::vector<SplitPlan> bargain_plans_;     ///< per item: bargain-only customers over them
   std::vector<SplitPlan> substitute_plans_;  ///< per item: its lost customers over substitutes
   std::vector<int> substitute_split_;        ///< scratch: one bucket's split over substitutes
-  std::vector<Pair> pairs_;                  ///< every substitution pair, by origin item
+  /// Every substitution pair's substitute item, by origin item (runtime_[i].pairs_begin..end);
+  /// the shares live in substitute_plans_.
+  std::vector<int> pair_to_;
   std::vector<pcg32> intraday_streams_;      ///< one per item
   std::vector<pcg32> substitution_streams_;  ///< one per item
   std::vector<pcg32> choice_streams_;        ///< one per item with a discounted tier
