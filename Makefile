@@ -1,7 +1,7 @@
 # Conveniences over the README's two set-up commands (.ci/demo and .ci/test).
 JOBS ?= $(shell nproc)
 
-.PHONY: demo test bench debug-test format
+.PHONY: demo test bench debug-test tsan-test fuzz format
 
 demo:
 	bash .ci/demo
@@ -18,6 +18,17 @@ debug-test:
 	cmake --preset debug
 	cmake --build --preset debug -j $(JOBS)
 	ctest --preset debug -j $(JOBS)
+
+# The parallel runner tests under ThreadSanitizer (clang).
+tsan-test:
+	bash .ci/install-deps
+	bash .ci/tsan
+
+# Every fuzz target for FUZZ_SECONDS (default 60) each; see DEVELOPERS.md, "Fuzzing".
+FUZZ_SECONDS ?= 60
+fuzz:
+	bash .ci/install-deps
+	bash .ci/fuzz $(FUZZ_SECONDS)
 
 format:
 	find sim policies reports cli tests -name '*.hpp' -o -name '*.cpp' | xargs clang-format -i

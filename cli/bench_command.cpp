@@ -6,6 +6,7 @@
 #include <thread>
 
 #include "cli/commands.hpp"
+#include "cli/history_bench.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/store_run.hpp"
 #include "sim/runner/monte_carlo.hpp"
@@ -116,6 +117,8 @@ int bench_command(const BenchArgs& args) {
     const int n = size_work(*p, 1.0);
     fmt::print("{:>20.1f} M  {:<64}\n", rate(*p, n, max_threads, per_rep) / 1e6, what);
   }
+
+  bench_history_reader(100, 50, 400);  // 2 million rows
 
   const DemandModel demand(daily.scenario);
   const SimSetup setup{daily.scenario, demand, daily.policies, daily.scenario.seed};

@@ -7,6 +7,7 @@
 #include "cli/progress.hpp"
 #include "sim/runner/memory_limit.hpp"
 #include "sim/runner/run_estimate.hpp"
+#include "sim/scenario/scenario_warnings.hpp"
 
 namespace larder {
 
@@ -22,9 +23,19 @@ std::string policy_text(const PolicySpec& p) {
 int check_command(const CommonOptions& args) {
   const PreparedScenario prepared = prepare_scenario(args.scenario, args.overrides);
   const Scenario& sc = prepared.scenario;
+  for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
   const int threads = args.threads > 0
                           ? args.threads
                           : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+  // Too large to even estimate by building the demand model: say so from the sizes alone.
+  if (const std::size_t floor = minimum_memory(sc, prepared.policies.size());
+      floor > default_memory_limit()) {
+    fmt::print(
+        "{}: scenario '{}' is valid but needs at least {} of memory, more than larder "
+        "run's default --max-memory of {}: this run would be refused\n",
+        sc.file, sc.name, format_bytes(floor), format_bytes(default_memory_limit()));
+    return 0;
+  }
   const RunEstimate e = estimate_run(sc, prepared.policies, threads);
   const auto& baseline = sc.policies[static_cast<size_t>(sc.baseline)].name;
 

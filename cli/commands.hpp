@@ -27,6 +27,7 @@ struct RunArgs {
   std::string max_memory;        ///< refuse a run estimated above this ("4G"); "" = half the RAM
   std::string precision;         ///< METRIC=HALF_WIDTH: add replications until met ("" = off)
   int max_replications = 10000;  ///< the most --precision may run
+  bool force = false;            ///< write into a non-empty folder that holds no larder result
   MpiWorld mpi;                  ///< this rank under mpirun (rank 0 of 1 otherwise)
 };
 /// Exit 130 when interrupted (Ctrl-C), with the finished replications in <out>/partial/.
@@ -38,6 +39,7 @@ struct MergeArgs {
   std::string out;                  ///< "" = larder-out/<scenario name>
   bool quiet = false;
   std::string format = "table";  ///< what goes to stdout: table | json
+  bool force = false;            ///< write into a non-empty folder that holds no larder result
 };
 int merge_command(const MergeArgs& args);
 
@@ -48,6 +50,7 @@ struct SweepArgs {
   std::vector<std::string> set;   ///< PATH=V1,V2,... (several make a grid)
   std::vector<std::string> vary;  ///< PATH=-10%,+10%,...: one input at a time
   std::string out;                ///< folder for sweep.csv [larder-out/<scenario name>]
+  bool force = false;             ///< write into a non-empty folder that holds no larder result
 };
 int sweep_command(const SweepArgs& args);
 
@@ -58,6 +61,41 @@ struct AllocateArgs {
   std::string out;         ///< CSV file [larder-out/<scenario>/allocation-<policy>.csv]
 };
 int allocate_command(const AllocateArgs& args);
+
+/// `larder history SCENARIO --policy NAME --out FILE.csv`: what the stores would have recorded.
+struct HistoryArgs {
+  CommonOptions common;
+  std::string policy;     ///< a policy of the scenario
+  std::string out;        ///< the history CSV
+  int replication = 0;    ///< which replication's days
+  std::string items_out;  ///< item file to write beside it ("" = none)
+};
+int history_command(const HistoryArgs& args);
+
+/// `larder fit HISTORY.csv --out SCENARIO.yaml`: demand estimated from a censored history.
+struct FitArgs {
+  std::string history;          ///< the history CSV
+  std::string items;            ///< item file with prices and costs ("" = placeholders)
+  std::string out;              ///< scenario file to write
+  std::string family = "auto";  ///< auto | poisson | negative_binomial | normal
+  int min_days = 28;            ///< fewer days that did not sell out: the item is left out
+  std::string name;             ///< scenario name ["fitted-<history file stem>"]
+  bool substitution = false;    ///< also estimate substitute shares (needs hourly sales)
+  bool quiet = false;
+};
+int fit_command(const FitArgs& args);
+
+/// `larder drill SCENARIO`: a training drill at the prompt or from `--decisions FILE`;
+/// `larder drill --summary DIR...`: several trainees' scorecards in one table.
+struct DrillArgs {
+  CommonOptions common;
+  std::string decisions;             ///< score these decisions instead of prompting
+  std::string out;                   ///< [larder-out/<scenario>/drill-<trainee>]
+  std::string trainee = "trainee";   ///< the trainee's name in the scorecard
+  std::vector<std::string> summary;  ///< scorecard folders or files: the class view
+  bool force = false;                ///< write into a non-empty folder that holds no larder result
+};
+int drill_command(const DrillArgs& args);
 
 struct BenchArgs {
   int stores = 100;

@@ -84,6 +84,12 @@ int main(int argc, char** argv) {
       "                                   as many replications as that precision needs\n"
       "  larder allocate my.yaml --policy per-item-levels\n"
       "                                   levels a network_in_stock policy would roll out\n"
+      "  larder history my.yaml --policy per-item --out history.csv\n"
+      "                                   what the stores would have recorded\n"
+      "  larder fit history.csv --items items.csv --out fitted.yaml\n"
+      "                                   demand estimated back from sales cut off by sell-outs\n"
+      "  larder drill scenarios/drill-bakery.yaml --trainee sam\n"
+      "                                   a training drill: order, then see the scorecard\n"
       "  larder bench                     engine speed on a generated network\n\n"
       "Exit codes: 0 success, 2 bad input, 1 internal error, 130 interrupted (Ctrl-C: `run`\n"
       "writes the finished replications to <out>/partial/).\n\n" +
@@ -108,6 +114,9 @@ int main(int argc, char** argv) {
   run_cmd->add_option("--max-memory", run.max_memory,
                       "refuse to start when the estimated memory exceeds this, e.g. 4G "
                       "[half of this machine's memory]; `larder check` shows the estimate");
+  run_cmd->add_flag("--force", run.force,
+                    "write into an existing, non-empty --out folder that holds no larder result "
+                    "(files of larder's names are replaced)");
   run_cmd->add_option("--shard", run.shard,
                       "K/N: run only the K-th of N contiguous slices of the replications (every "
                       "shard with the same seed and -r) and write shard-K-of-N.json to the "
@@ -133,6 +142,9 @@ int main(int argc, char** argv) {
                         "PATH=-10%,+10% (or values): sensitivity, one input at a time, with a "
                         "tornado table of each policy's profit difference against the baseline; "
                         "a PATH without dots means every item's key, e.g. --vary price=-10%,+10%");
+  sweep_cmd->add_flag("--force", sweep.force,
+                      "write into an existing, non-empty --out folder that holds no larder result "
+                      "(files of larder's names are replaced)");
   sweep_cmd->add_option("-o,--out", sweep.out, "folder for sweep.csv [larder-out/<scenario name>]");
 
   larder::MergeArgs merge;
@@ -144,6 +156,9 @@ int main(int argc, char** argv) {
       ->required();
   merge_cmd->add_option("-o,--out", merge.out, "output folder [larder-out/<scenario name>]");
   merge_cmd->add_flag("-q,--quiet", merge.quiet, "no notes on stderr");
+  merge_cmd->add_flag("--force", merge.force,
+                      "write into an existing, non-empty --out folder that holds no larder result "
+                      "(files of larder's names are replaced)");
   merge_cmd->add_option("--format", merge.format, "what goes to stdout: table or json [table]")
       ->check(CLI::IsMember({"table", "json"}));
 
@@ -158,6 +173,130 @@ int main(int argc, char** argv) {
       "plan on this day, after simulating the days before it [end of warm-up]");
   allocate_cmd->add_option("-o,--out", allocate.out,
                            "CSV file [larder-out/<scenario name>/allocation-<policy>.csv]");
+
+  larder::HistoryArgs history;
+  auto* history_cmd = app.add_subcommand(
+      "history",
+      "write what the stores would have recorded under one policy (one replication): the "
+      "history format that `larder fit` reads");
+  add_common(*history_cmd, history.common, true);
+  history_cmd->add_option("-p,--policy", history.policy, "the policy whose days are recorded")
+      ->required();
+  history_cmd
+      ->add_option("-o,--out", history.out,
+                   "history CSV to write: one row per open store-item-day, columns "
+                   "date,store,item,delivered,sold,leftover,sold_out (plus sold_out_time and "
+                   "sales_HH when the scenario runs hour by hour); no true demand")
+      ->required();
+  history_cmd
+      ->add_option("--replication", history.replication,
+                   "which replication's days [0]; the same days as replication R of `larder run` "
+                   "with the same seed")
+      ->check(CLI::Range(0, 100000000));
+  history_cmd->add_option("--items-out", history.items_out,
+                          "also write the item file (item,price,unit_cost,shelf_life_days and "
+                          "the item attributes), for `larder fit --items`");
+  history_cmd->footer(
+      "Rows cover every store, item and open day of the horizon, warm-up included, dated from\n"
+      "horizon.start_date (without one, from an invented Monday 2027-01-04 moved to the\n"
+      "scenario's start weekday). sold_out = 1 when nothing was left at close: demand was at\n"
+      "least sold (censored). sold_out_time and sales_HH appear when the days run hour by hour.\n"
+      "Network-planned policies (network_in_stock) re-plan across all stores as in `larder "
+      "run`.\n\n"
+      "Examples:\n"
+      "  larder history my.yaml --policy per-item --out history.csv --items-out items.csv\n"
+      "  larder fit history.csv --items items.csv --out fitted.yaml\n"
+      "                                   estimate demand back from what the stores saw");
+
+  larder::FitArgs fit;
+  auto* fit_cmd = app.add_subcommand(
+      "fit",
+      "estimate demand from a sales history cut off by sell-outs and write it as a scenario");
+  fit_cmd->add_option("HISTORY", fit.history, "history CSV (the format `larder history` writes)")
+      ->required();
+  fit_cmd->add_option("-o,--out", fit.out, "scenario file to write (YAML, format 1)")->required();
+  fit_cmd->add_option("--items", fit.items,
+                      "item file (item,price,unit_cost,shelf_life_days, other columns are "
+                      "attributes); without it prices and costs are marked placeholders");
+  fit_cmd
+      ->add_option("--family", fit.family,
+                   "demand family: auto (smallest AIC), poisson, negative_binomial or normal "
+                   "[auto]")
+      ->check(CLI::IsMember({"auto", "poisson", "negative_binomial", "normal"}));
+  fit_cmd
+      ->add_option("--min-days", fit.min_days,
+                   "an item or store with fewer days that did not sell out is left out, not "
+                   "guessed [28]")
+      ->check(CLI::Range(1, 100000));
+  fit_cmd->add_option("--name", fit.name, "scenario name [fitted-<history file name>]");
+  fit_cmd->add_flag("--substitution", fit.substitution,
+                    "also estimate substitute shares between the items from the extra sales an "
+                    "item gets in the hours another is sold out (stockout-state pooling; needs "
+                    "sales_HH and sold_out_time columns)");
+  fit_cmd->add_flag("-q,--quiet", fit.quiet, "no warnings on stderr");
+  fit_cmd->footer(
+      "Model: mean(store, item, day) = base(item) x size(store) x weekday(item, day), fitted by\n"
+      "censored likelihood: a day that did not sell out scores P(demand = sales), a sold-out day\n"
+      "P(demand >= sales): the last unit went, so demand was at least the sales (not more\n"
+      "than them). Store sizes average 1; weekday multipliers average 1 over the item's weekdays,\n"
+      "so base is the mean demand per open day at a size-1 store. The family (poisson,\n"
+      "negative_binomial or normal, spread by cv) is the one with the smallest AIC. With hourly\n"
+      "sales (sales_HH) the intraday profile comes from days that did not sell out; with\n"
+      "sell-out times the base is also estimated by the exposure MLE, as a check. Each item's\n"
+      "comment block in the scenario gives standard errors, the share of sold-out days, what\n"
+      "sales-as-demand would give and the lag-7 residual correlation. Items and stores with\n"
+      "fewer than --min-days days that did not sell out (or fewer than 3 on a weekday) are\n"
+      "listed and left out. The table on stdout shows the same per item. Without --items,\n"
+      "prices and costs are written as placeholders marked # PLACEHOLDER, with a warning.\n"
+      "--substitution groups the opening hours of each store-day by which item was out\n"
+      "(Karabati, Tan and Ozturk 2009) and writes item j's share for item i as i's extra sales\n"
+      "in hours when only j was out, over j's expected demand in those hours (shares above\n"
+      "twice their standard error).\n\n"
+      "Examples:\n"
+      "  larder history my.yaml --policy habit --out history.csv --items-out items.csv\n"
+      "  larder fit history.csv --items items.csv --out fitted.yaml\n"
+      "  larder check fitted.yaml\n");
+
+  larder::DrillArgs drill;
+  auto* drill_cmd = app.add_subcommand(
+      "drill",
+      "a training drill: order a scenario's drill items day by day at the prompt (or score a "
+      "decision file), then compare with the scenario's policies on the same customers");
+  add_common(*drill_cmd, drill.common, false);
+  drill_cmd->get_option("SCENARIO")
+      ->description(
+          "scenario file (YAML) with a drill: section (e.g. scenarios/drill-bakery.yaml)");
+  drill_cmd->remove_option(drill_cmd->get_option("--replications"));  // one replication
+  drill_cmd->remove_option(drill_cmd->get_option("--threads"));       // one store, one thread
+  drill_cmd->add_option("--decisions", drill.decisions,
+                        "score this CSV (day,store,item,quantity: the replay format; every "
+                        "drill day with a delivery needs one row per drill item) instead of "
+                        "prompting; a session's decisions.csv can be given back here");
+  drill_cmd->add_option("--trainee", drill.trainee,
+                        "the trainee's name in the scorecard and the output folder [trainee]");
+  drill_cmd->add_option("-o,--out", drill.out,
+                        "output folder [larder-out/<scenario name>/drill-<trainee>]: "
+                        "decisions.csv (saved after every day), scorecard.json, scorecard.txt, "
+                        "scorecard.html; with --summary: class.csv "
+                        "[larder-out/<scenario name>-class]");
+  drill_cmd->add_flag("--force", drill.force,
+                      "write into an existing, non-empty --out folder that holds no larder "
+                      "result (files of larder's names are replaced)");
+  drill_cmd
+      ->add_option("--summary", drill.summary,
+                   "class view: the scorecards in these folders (or scorecard.json files) "
+                   "of one exercise in one table; writes class.csv")
+      ->expected(1, -1);
+  drill_cmd->footer(
+      "At the prompt, type one whole number per drill item in the order shown ('12 8 0');\n"
+      "'=' in place of a number repeats that item's last order, 'r' repeats all of them,\n"
+      "'?' shows help and 'q' stops (the orders so far stay in decisions.csv). A bad line\n"
+      "gets a one-line message and the same day is asked again. The scenario's drill:\n"
+      "section sets the store, items, days, comparison policies and surprise events.\n"
+      "Examples:\n"
+      "  larder drill scenarios/drill-bakery.yaml --trainee sam\n"
+      "  larder drill scenarios/drill-bakery.yaml --decisions sam.csv --trainee sam\n"
+      "  larder drill --summary larder-out/drill-bakery/drill-*\n");
 
   larder::BenchArgs bench;
   auto* bench_cmd = app.add_subcommand(
@@ -177,7 +316,8 @@ int main(int argc, char** argv) {
 
   try {
     run.common.command_line = check.command_line = allocate.common.command_line =
-        sweep.common.command_line = joined(argc, argv);
+        sweep.common.command_line = history.common.command_line = joined(argc, argv);
+    drill.common.command_line = run.common.command_line;
     run.mpi = mpi.world();
     if (run.mpi.rank != 0) run.common.quiet = true;  // rank 0 speaks for the run
     if (*run_cmd || app.get_subcommands().empty()) return larder::run_command(run);
@@ -186,6 +326,9 @@ int main(int argc, char** argv) {
     if (*allocate_cmd) return larder::allocate_command(allocate);
     if (*sweep_cmd) return larder::sweep_command(sweep);
     if (*merge_cmd) return larder::merge_command(merge);
+    if (*drill_cmd) return larder::drill_command(drill);
+    if (*history_cmd) return larder::history_command(history);
+    if (*fit_cmd) return larder::fit_command(fit);
   } catch (const larder::InputError& e) {
     std::fputs(e.what(), stderr);
     return 2;

@@ -11,6 +11,7 @@
 #include "policies/policy.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/html_report.hpp"
+#include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
 #include "reports/shard_file.hpp"
 #include "reports/summary_json.hpp"
@@ -60,6 +61,7 @@ int merge_command(const MergeArgs& args) {
   const RunResult merged = merge_shards(shards, fmt::format("{}", fmt::join(args.inputs, ", ")));
   const std::filesystem::path dir = args.out.empty() ? default_folder(merged.info.scenario_name)
                                                      : std::filesystem::path(args.out);
+  claim_output_folder(dir, args.force);
   write_run_outputs(merged, dir);
   try {
     write_file_atomically(dir / "report.html", merged_report(shards.front().shard, merged));

@@ -10,6 +10,7 @@
 #include "cli/run_outputs.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/html_report.hpp"
+#include "reports/output_claim.hpp"
 #include "reports/shard_file.hpp"
 #include "reports/summary_json.hpp"
 #include "reports/terminal_table.hpp"
@@ -17,6 +18,7 @@
 #include "sim/runner/monte_carlo.hpp"
 #include "sim/runner/precision.hpp"
 #include "sim/runner/shard_merge.hpp"
+#include "sim/scenario/scenario_warnings.hpp"
 
 namespace larder {
 
@@ -46,6 +48,9 @@ std::optional<PrecisionTarget> precision_option(const RunArgs& args, const Scena
 int run_command(const RunArgs& args) {
   PreparedScenario prepared = prepare_scenario(args.common.scenario, args.common.overrides);
   const Scenario& sc = prepared.scenario;
+  if (!args.common.quiet) {
+    for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
+  }
   if (!sc.seed_given && !args.common.quiet) {
     fmt::print(stderr, "seed {} was drawn at random; pass --seed {} to repeat this run\n", sc.seed,
                sc.seed);
@@ -62,6 +67,9 @@ int run_command(const RunArgs& args) {
       run_slice(mpi ? fmt::format("{}/{}", args.mpi.rank + 1, args.mpi.size) : args.shard,
                 sc.replications, sc.seed_given);
   check_memory(sc, prepared.policies, args.common.threads, args.max_memory);
+  const std::filesystem::path dir = args.out.empty() ? std::filesystem::path("larder-out") / sc.name
+                                                     : std::filesystem::path(args.out);
+  claim_output_folder(dir, args.force);  // before simulating: a refusal costs nothing
   Progress progress("replications", args.common.quiet);
   const InterruptGuard interrupt;  // Ctrl-C stops after the current batch (interrupt.hpp)
   RunOptions options;
@@ -84,8 +92,6 @@ int run_command(const RunArgs& args) {
   result.info.command = without_shard_option(args.common.command_line);
   if (!sc.seed_given) result.info.command += fmt::format(" --seed {}", sc.seed);
 
-  const std::filesystem::path dir = args.out.empty() ? std::filesystem::path("larder-out") / sc.name
-                                                     : std::filesystem::path(args.out);
   RunSlice written = slice;
   if (mpi) {
     // Rank 0 gathers every rank's slice and merges them into the whole run.

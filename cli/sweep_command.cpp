@@ -13,6 +13,7 @@
 #include "reports/atomic_file.hpp"
 #include "reports/comparison.hpp"
 #include "reports/number_format.hpp"
+#include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
 #include "reports/sensitivity.hpp"
 #include "reports/sweep_csv.hpp"
@@ -77,7 +78,7 @@ int sweep_command(const SweepArgs& args) {
   const std::filesystem::path dir = args.out.empty()
                                         ? std::filesystem::path("larder-out") / info.scenario_name
                                         : std::filesystem::path(args.out);
-  ensure_directory(dir);
+  claim_output_folder(dir, args.force);
   if (!spec.varies.empty()) {
     write_file_atomically(dir / "sensitivity.csv", sensitivity_csv(points));
     const RunResult& base = points.front().result;

@@ -128,4 +128,62 @@ void ensure_directory(const fs::path& dir) {
   }
 }
 
+AtomicFileWriter::AtomicFileWriter(fs::path path) : path_(std::move(path)) {
+  if (path_.filename().empty()) fail(path_, "the path names no file");
+  tmp_ = temporary_name(path_);
+  fd_ = ::open(tmp_.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+  if (fd_ < 0) {
+    fail(path_,
+         fmt::format("cannot create temporary file {}: {}", tmp_.string(), errno_text(errno)));
+  }
+  buffer_.reserve(std::size_t{1} << 20);
+}
+
+AtomicFileWriter::~AtomicFileWriter() {
+  if (fd_ >= 0) ::close(fd_);
+  if (!committed_) {
+    std::error_code ignored;
+    fs::remove(tmp_, ignored);
+  }
+}
+
+void AtomicFileWriter::write(std::string_view text) {
+  buffer_.append(text);
+  if (buffer_.size() >= (std::size_t{1} << 20)) drain();
+}
+
+void AtomicFileWriter::drain() {
+  const char* data = buffer_.data();
+  std::size_t left = buffer_.size();
+  while (left > 0) {
+    const ssize_t written = ::write(fd_, data, left);
+    if (written < 0) {
+      if (errno == EINTR) continue;
+      fail(path_, fmt::format("writing {} failed: {}", tmp_.string(), errno_text(errno)));
+    }
+    data += written;
+    left -= static_cast<std::size_t>(written);
+  }
+  buffer_.clear();
+}
+
+void AtomicFileWriter::commit() {
+  if (committed_ || fd_ < 0) fail(path_, "the file was already committed");
+  drain();
+  if (::fsync(fd_) != 0) {
+    fail(path_, fmt::format("flushing {} failed: {}", tmp_.string(), errno_text(errno)));
+  }
+  const int rc = ::close(fd_);
+  fd_ = -1;
+  if (rc != 0) fail(path_, fmt::format("closing {} failed: {}", tmp_.string(), errno_text(errno)));
+  std::error_code ec;
+  fs::rename(tmp_, path_, ec);
+  if (ec) {
+    fail(path_,
+         fmt::format("renaming {} to the final name failed: {}", tmp_.string(), ec.message()));
+  }
+  committed_ = true;
+  sync_folder(path_.parent_path());
+}
+
 }  // namespace larder

@@ -4,6 +4,7 @@
 // disk, and is then renamed over the final name (cli.md, "Output folder").
 
 #include <filesystem>
+#include <string>
 #include <string_view>
 
 namespace larder {
@@ -16,5 +17,32 @@ void write_file_atomically(const std::filesystem::path& path, std::string_view c
 /// Creates `dir` and any missing parents; does nothing if it is already a folder. Throws
 /// std::runtime_error naming the path and the reason if it cannot be created or is not a folder.
 void ensure_directory(const std::filesystem::path& dir);
+
+/// A file written piece by piece that appears under its final name only at `commit`: the
+/// content goes to a temporary file in the same folder (removed when the writer is destroyed
+/// without committing), so a large output streams without being held in memory and a reader
+/// never sees part of it. Errors throw std::runtime_error naming the path and the reason.
+class AtomicFileWriter {
+ public:
+  /// Creates the temporary file next to `path` (whose folder must exist).
+  explicit AtomicFileWriter(std::filesystem::path path);
+  ~AtomicFileWriter();
+  AtomicFileWriter(const AtomicFileWriter&) = delete;
+  AtomicFileWriter& operator=(const AtomicFileWriter&) = delete;
+
+  /// Appends `text` (buffered).
+  void write(std::string_view text);
+  /// Writes what is buffered, flushes it to disk and renames the file to its final name.
+  void commit();
+
+ private:
+  void drain();
+
+  std::filesystem::path path_;
+  std::filesystem::path tmp_;
+  int fd_ = -1;
+  std::string buffer_;
+  bool committed_ = false;
+};
 
 }  // namespace larder

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include "reports/comparison.hpp"
 #include "reports/csv.hpp"
 #include "sim/stats/summary.hpp"
 
@@ -11,7 +12,7 @@ namespace {
 
 std::string row(const std::string& policy, const BreakdownKey& k, std::string_view metric,
                 const std::vector<double>& v) {
-  const Estimate e = estimate_mean(v);
+  const Estimate e = report_estimate(v);
   return fmt::format("{},{},{},{},{},{}\n", policy, csv_field(k.dimension), csv_field(k.key),
                      metric, csv_number(e.mean), csv_number(e.stderr_));
 }

@@ -3,18 +3,30 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <limits>
 
 namespace larder {
 
+Estimate report_estimate(std::span<const double> values) {
+  return without_interval_below_two(estimate_mean(values, kReportLevel));
+}
+
+Estimate without_interval_below_two(Estimate e) {
+  if (e.n < 2) {
+    e.stderr_ = e.ci_low = e.ci_high = std::numeric_limits<double>::quiet_NaN();
+  }
+  return e;
+}
+
 Estimate policy_estimate(const RunResult& result, int policy, Metric m) {
   const std::vector<double> values = result.series(policy, m);
-  return estimate_mean(values, kReportLevel);
+  return report_estimate(values);
 }
 
 Estimate baseline_difference(const RunResult& result, int policy, Metric m) {
   const std::vector<double> a = result.series(policy, m);
   const std::vector<double> b = result.series(result.baseline, m);
-  return estimate_paired_difference(a, b, kReportLevel);
+  return without_interval_below_two(estimate_paired_difference(a, b, kReportLevel));
 }
 
 bool is_significant(const Estimate& difference) {
@@ -52,7 +64,7 @@ std::string difference_title(const RunResult& result, int policy) {
 Estimate breakdown_estimate(const PolicyBreakdown& breakdown, std::size_t key, Metric m) {
   std::vector<double> v(breakdown.values.size());
   for (size_t r = 0; r < v.size(); ++r) v[r] = at(breakdown.values[r][key], m);
-  return estimate_mean(v, kReportLevel);
+  return report_estimate(v);
 }
 
 std::vector<PlanGroupRow> plan_group_rows(const RunResult& result, std::size_t policy) {
@@ -62,7 +74,7 @@ std::vector<PlanGroupRow> plan_group_rows(const RunResult& result, std::size_t p
   const auto column = [](const std::vector<std::vector<double>>& per_rep, size_t g) {
     std::vector<double> v(per_rep.size());
     for (size_t r = 0; r < v.size(); ++r) v[r] = per_rep[r][g];
-    return estimate_mean(v, kReportLevel);
+    return report_estimate(v);
   };
   for (size_t k = b.first_group; k < b.keys.size(); ++k) {
     const size_t g = k - b.first_group;

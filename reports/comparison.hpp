@@ -4,6 +4,7 @@
 // baseline with a verdict in plain words. summary.json and the terminal table share these so
 // they always agree.
 
+#include <span>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -25,6 +26,14 @@ inline constexpr std::string_view kEstimateCaption =
 inline double half_width(const Estimate& e) {
   return (e.ci_high - e.ci_low) / 2.0;
 }
+
+/// `e` with its standard error and interval marked not available (NaN) when fewer than 2
+/// replications back them: every writer then shows "n/a" (text), null (JSON) or an empty field
+/// (CSV), never a made-up zero-width interval (README, "One replication").
+Estimate without_interval_below_two(Estimate e);
+
+/// The mean of `values` (one per replication) with its 95% t interval, as reports show it.
+Estimate report_estimate(std::span<const double> values);
 
 /// Mean of metric `m` of policy `policy` over replications, with its 95% t interval.
 Estimate policy_estimate(const RunResult& result, int policy, Metric m);

@@ -2,6 +2,8 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
+
 namespace larder {
 
 std::string csv_field(std::string_view field) {
@@ -18,6 +20,7 @@ std::string csv_field(std::string_view field) {
 }
 
 std::string csv_number(double value) {
+  if (!std::isfinite(value)) return {};  // not available: an empty field, never "nan"
   return fmt::format("{}", value);
 }
 

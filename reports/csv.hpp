@@ -12,7 +12,8 @@ namespace larder {
 std::string csv_field(std::string_view field);
 
 /// `value` in its shortest form that reads back (strtod) to the same double: 0.1 as "0.1", 250 as
-/// "250", 1e-07 as "1e-07"; "nan", "inf" and "-inf" for values that are not finite.
+/// "250", 1e-07 as "1e-07"; an empty field for a value that is not finite (not available, e.g.
+/// the interval of one replication), so no CSV file ever holds "nan" or "inf".
 std::string csv_number(double value);
 
 }  // namespace larder

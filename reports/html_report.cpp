@@ -268,7 +268,7 @@ std::string substitution_section(const RunResult& r) {
     for (const auto& per_rep : r.substituted) {
       std::vector<double> v;
       for (const auto& row : per_rep) v.push_back(row[k]);
-      est.push_back(estimate_mean(v, kReportLevel));
+      est.push_back(report_estimate(v));
     }
     const int decimals = row_decimals(est, "units");
     std::vector<HtmlCell> row = {{r.substitution_pairs[k].from, {}, true},

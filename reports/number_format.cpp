@@ -60,6 +60,7 @@ std::string format_estimate(double mean, double half_width, std::string_view uni
 }
 
 std::string format_interval(double low, double high, std::string_view unit, int decimals) {
+  if (!std::isfinite(low) || !std::isfinite(high)) return "n/a";  // e.g. one replication
   const int d = estimate_decimals((high - low) / 2.0, unit, decimals);
   return fmt::format("{} to {}", format_number(display_value(low, unit), d),
                      format_number(display_value(high, unit), d));

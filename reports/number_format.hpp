@@ -29,7 +29,8 @@ std::string format_estimate(double mean, double half_width, std::string_view uni
 /// Decimals format_estimate would use for these arguments.
 int estimate_decimals(double half_width, std::string_view unit, int decimals = -1);
 
-/// "low to high" with the same rounding rules as format_estimate.
+/// "low to high" with the same rounding rules as format_estimate; "n/a" when either end is not
+/// finite (an interval that is not available).
 std::string format_interval(double low, double high, std::string_view unit, int decimals = -1);
 
 /// The label of a unit in a table's unit column: "%" for shares ("% pts" for differences of

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include "reports/comparison.hpp"
 #include "reports/csv.hpp"
 #include "sim/stats/summary.hpp"
 
@@ -16,7 +17,7 @@ std::string substitution_csv(const RunResult& result) {
       std::vector<double> v;
       v.reserve(reps.size());
       for (const auto& row : reps) v.push_back(row[k]);
-      const Estimate e = estimate_mean(v);
+      const Estimate e = report_estimate(v);
       const SubstitutionPair& pair = result.substitution_pairs[k];
       out += fmt::format("{},{},{},{},{},{},{},{}\n", csv_field(result.policies[p]),
                          csv_field(pair.from), csv_field(pair.to), csv_number(e.mean),

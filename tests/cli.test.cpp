@@ -204,7 +204,8 @@ TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
   CHECK(o.code == 2);
   // Line 9 holds the pie item, whose shelf life is now 0.
   CHECK(o.err.find(fmt::format("{}:9:", file.string())) != std::string::npos);
-  CHECK(o.err.find("error: items[1].shelf_life_days must be >= 1 (got 0)") != std::string::npos);
+  CHECK(o.err.find("error: items[1].shelf_life_days must be in [1, 365] (got 0)") !=
+        std::string::npos);
 
   const Outcome missing = larder("check /nonexistent/nowhere.yaml");
   CHECK(missing.code == 2);

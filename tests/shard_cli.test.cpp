@@ -100,9 +100,10 @@ TEST_CASE("larder run --shard 1/3, 2/3, 3/3 and larder merge equal a single run,
                                        (dir.path() / fmt::format("part{}", k)).string()));
     INFO(o.err);
     REQUIRE(o.code == 0);
-    // A shard writes its shard file only, not the final outputs of a run.
+    // A shard writes its shard file only (and the output-folder marker), not the final outputs
+    // of a run.
     CHECK(test::folder_entries(dir.path() / fmt::format("part{}", k)) ==
-          std::vector<std::string>{fmt::format("shard-{}-of-3.json", k)});
+          std::vector<std::string>{".larder-output", fmt::format("shard-{}-of-3.json", k)});
   }
   const fs::path merged = dir.path() / "merged";
   const Outcome m =

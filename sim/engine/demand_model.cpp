@@ -38,12 +38,12 @@ DemandModel::DemandModel(const Scenario& scenario) : scenario_(&scenario) {
         law_with_mean(static_cast<int>(k % static_cast<size_t>(items)), weekday_mean_[k]),
         max_entries);
   }
-  plain_day_.resize(static_cast<size_t>(stores * days));
+  plain_day_.resize(static_cast<size_t>(stores) * static_cast<size_t>(days));
   open_day_.resize(plain_day_.size());
   event_factor_.resize(plain_day_.size());
   for (int s = 0; s < stores; ++s) {
     for (int t = 0; t < days; ++t) {
-      const size_t k = static_cast<size_t>(s * days + t);
+      const size_t k = static_cast<size_t>(s) * static_cast<size_t>(days) + static_cast<size_t>(t);
       open_day_[k] = scenario.is_open(s, t) ? 1 : 0;
       event_factor_[k] = scenario.event_multiplier(s, t);
       plain_day_[k] = (open_day_[k] != 0 && event_factor_[k] == 1.0) ? 1 : 0;
@@ -58,7 +58,8 @@ std::size_t DemandModel::index(int store, int item, int weekday) const {
 }
 
 const InversionTable* DemandModel::plain_tables(int store, int day) const {
-  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  const size_t k = static_cast<size_t>(store) * static_cast<size_t>(scenario_->horizon.days) +
+                   static_cast<size_t>(day);
   if (plain_day_[k] == 0) return nullptr;
   return &tables_[index(store, 0, scenario_->weekday_of(day))];
 }
@@ -69,7 +70,8 @@ CountLaw DemandModel::law_with_mean(int item, double mean) const {
 }
 
 double DemandModel::mean(int store, int item, int day) const {
-  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  const size_t k = static_cast<size_t>(store) * static_cast<size_t>(scenario_->horizon.days) +
+                   static_cast<size_t>(day);
   if (open_day_[k] == 0) return 0.0;
   return weekday_mean_[index(store, item, scenario_->weekday_of(day))] * event_factor_[k];
 }
@@ -83,7 +85,8 @@ CountLaw DemandModel::weekday_law(int store, int item, int weekday) const {
 }
 
 int DemandModel::sample(int store, int item, int day, double u) const {
-  const size_t k = static_cast<size_t>(store * scenario_->horizon.days + day);
+  const size_t k = static_cast<size_t>(store) * static_cast<size_t>(scenario_->horizon.days) +
+                   static_cast<size_t>(day);
   if (plain_day_[k] != 0) return tables_[index(store, item, scenario_->weekday_of(day))](u);
   if (open_day_[k] == 0) return 0;
   return law(store, item, day).quantile(u);

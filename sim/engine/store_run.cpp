@@ -110,7 +110,8 @@ struct StoreRun::Lane {
   std::vector<std::int64_t> substituted;  ///< per substitution pair: scored units sold
   std::vector<int> acceptors;             ///< [item * buckets + h] when goodwill is on
   std::vector<int> others;
-  std::vector<Pools> pools;  ///< per item, today's stock by tier
+  std::vector<Pools> pools;                ///< per item, today's stock by tier
+  std::vector<std::int32_t> sold_by_hour;  ///< [item * buckets + h]: sales up to the end of h
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
@@ -188,6 +189,7 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
     lane.next_day.assign(static_cast<size_t>(items_), 0);
     lane.pools.assign(static_cast<size_t>(items_), Pools{});
     lane.substituted.assign(pair_to_.size(), 0);
+    if (hourly_) lane.sold_by_hour.assign(static_cast<size_t>(items_ * buckets_), 0);
     if (goodwill_) {
       lane.acceptors.assign(static_cast<size_t>(items_ * buckets_), 0);
       lane.others.assign(static_cast<size_t>(items_ * buckets_), 0);
@@ -302,6 +304,27 @@ int StoreRun::units_on_hand(int policy, int item) const {
   const Lane& lane = *lanes_[static_cast<size_t>(policy)];
   const size_t i = static_cast<size_t>(item);
   return lane.shelf.total(item) + (lane.next_day.empty() ? 0 : lane.next_day[i]);
+}
+
+std::span<const std::int32_t> StoreRun::stock_by_age(int policy, int item) const {
+  return lanes_[static_cast<size_t>(policy)]->shelf.by_age(item);
+}
+
+float StoreRun::sellout_hour(int policy, int item) const {
+  const Lane& lane = *lanes_[static_cast<size_t>(policy)];
+  const size_t i = static_cast<size_t>(item);
+  if (!hourly_ || !lane.observed[i].sold_out) return std::numeric_limits<float>::quiet_NaN();
+  return lane.pools[i].sellout;
+}
+
+void StoreRun::sales_by_hour(int policy, int item, std::span<int> out) const {
+  if (!hourly_) return;
+  const Lane& lane = *lanes_[static_cast<size_t>(policy)];
+  const size_t hb = static_cast<size_t>(buckets_);
+  const std::int32_t* cumulative = lane.sold_by_hour.data() + static_cast<size_t>(item) * hb;
+  for (size_t h = 0; h < out.size() && h < hb; ++h) {
+    out[h] = cumulative[h] - (h == 0 ? 0 : cumulative[h - 1]);
+  }
 }
 
 std::size_t StoreRun::bytes_per_item_and_policy() const {
@@ -611,11 +634,13 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
       p.bargain += got;
       p.arrivals += want;
     }
-    if (lane.observe_intraday) {
+    if (hourly_) {
       // The sell-out time: the k-th of n customers arriving at a constant rate within the hour
-      // comes on average k / (n + 1) of the way through it.
+      // comes on average k / (n + 1) of the way through it. Recorded whether or not the policy
+      // observes it (the store's history has it; the Observation only with observe: intraday).
       for (size_t i = 0; i < n_items; ++i) {
         Pools& p = pools[i];
+        lane.sold_by_hour[i * hb + h] = p.primary + p.substitute + p.bargain;
         if (p.own() > 0 || !std::isnan(p.sellout)) continue;
         p.sellout = static_cast<float>(static_cast<double>(h) + p.own_start / (p.arrivals + 1.0));
       }

@@ -50,6 +50,9 @@ class StoreRun {
   std::span<const Observation> observations(int policy) const;
   /// Units of an item on hand after the close under one policy: the shelf and the next-day tier.
   int units_on_hand(int policy, int item) const;
+  /// Units of an item on the shelf after the close under one policy, by remaining life: slot a
+  /// can be sold from tomorrow on for a + 1 more days (the last slot is empty after ageing).
+  std::span<const std::int32_t> stock_by_age(int policy, int item) const;
   /// Today's demand (primary customers) of an item under one policy, after the day has run:
   /// the lane's own count when goodwill makes demand policy-specific, else the shared count.
   int demand_today(int policy, int item) const;
@@ -62,6 +65,16 @@ class StoreRun {
   void set_levels(int policy, std::span<const double> level_per_item);
   /// Hourly buckets per day (1 on the one-bucket and plain paths).
   int buckets() const { return buckets_; }
+  /// Whether days run hour by hour (then the sell-out time and the sales per hour are known).
+  bool hourly() const { return hourly_; }
+  /// After the day has run: the hours after opening at which the last unit of an item sold
+  /// under one policy, when it sold out and the day ran hourly; NaN otherwise. What the store
+  /// records whether or not the policy looks at it (`Observation::sellout_hour` is the policy's
+  /// view, filled only with `observe: intraday`).
+  float sellout_hour(int policy, int item) const;
+  /// After the day has run hourly: an item's units sold in each opening hour under one policy
+  /// (`out` has buckets() entries; they add up to the day's sales).
+  void sales_by_hour(int policy, int item, std::span<int> out) const;
   /// Bytes of state per store-item and policy (shelf, pipeline, observation, tally, parts).
   std::size_t bytes_per_item_and_policy() const;
 

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cmath>
 
 #include "sim/runner/run_estimate.hpp"
@@ -41,6 +42,16 @@ std::size_t default_memory_limit() {
   return static_cast<std::size_t>(pages) * static_cast<std::size_t>(page) / 2;
 }
 
+std::size_t minimum_memory(const Scenario& scenario, std::size_t policies) {
+  const double stores = static_cast<double>(scenario.stores.size());
+  const double items = static_cast<double>(scenario.items.size());
+  const double bytes =
+      stores * scenario.horizon.days * 10.0 + stores * items * kDaysPerWeek * 100.0 +
+      static_cast<double>(scenario.replications) * static_cast<double>(policies) * 24.0 * 8.0;
+  constexpr double kMost = 1e18;  // stays within size_t
+  return static_cast<std::size_t>(std::min(bytes, kMost));
+}
+
 std::size_t check_memory(const Scenario& scenario, const std::vector<Policy>& policies, int threads,
                          const std::string& limit_text) {
   std::size_t limit = default_memory_limit();
@@ -54,14 +65,18 @@ std::size_t check_memory(const Scenario& scenario, const std::vector<Policy>& po
     }
     limit = *parsed;
   }
-  const std::size_t need = estimate_run(scenario, policies, threads).memory_bytes;
+  // The floor first: building the estimate's demand model could itself exhaust the memory.
+  const std::size_t floor = minimum_memory(scenario, policies.size());
+  const std::size_t need =
+      floor > limit ? floor : estimate_run(scenario, policies, threads).memory_bytes;
   if (need > limit) {
     Diagnostics d;
-    d.error({scenario.file, 0, 0},
-            fmt::format("this run would need about {} of memory, more than the limit of {}",
-                        format_bytes(need), format_bytes(limit)),
-            "use fewer replications, stores or items, or raise --max-memory (the default is "
-            "half of this machine's memory)");
+    d.error(
+        {scenario.file, 0, 0},
+        fmt::format("this run would need {} {} of memory, more than the limit of {}",
+                    need == floor ? "at least" : "about", format_bytes(need), format_bytes(limit)),
+        "use fewer replications, stores or items, or raise --max-memory (the default is "
+        "half of this machine's memory)");
     throw InputError(d);
   }
   return need;

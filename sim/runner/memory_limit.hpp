@@ -20,6 +20,12 @@ std::string format_bytes(std::size_t bytes);
 /// The default limit: half of the machine's physical memory (8 GiB if it cannot be read).
 std::size_t default_memory_limit();
 
+/// A lower bound of the memory a run needs, computed from the scenario's sizes alone (the demand
+/// model's calendar of 10 bytes per store-day and its weekday laws of at least 100 bytes per
+/// store-item and weekday, the result rows of 8 bytes per replication, policy and metric), so that
+/// a run far too large is refused before anything that size is built.
+std::size_t minimum_memory(const Scenario& scenario, std::size_t policies);
+
 /// Throws InputError when the run's estimated memory exceeds `limit_text` (or the default).
 /// Returns the estimate.
 std::size_t check_memory(const Scenario& scenario, const std::vector<Policy>& policies, int threads,

@@ -1,7 +1,6 @@
 #include "sim/runner/monte_carlo.hpp"
 
 #include <tbb/global_control.h>
-#include <tbb/parallel_for.h>
 #include <tbb/task_arena.h>
 
 #include <algorithm>
@@ -11,6 +10,7 @@
 #include "sim/engine/store_run.hpp"
 #include "sim/runner/breakdown.hpp"
 #include "sim/runner/network_phases.hpp"
+#include "sim/runner/parallel_tasks.hpp"
 #include "sim/runner/store_tallies.hpp"
 
 namespace larder {
@@ -138,7 +138,7 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
       plans = std::move(out.plans);
     } else {
       arena.execute([&] {
-        tbb::parallel_for(0, n * stores, [&](int task) {
+        parallel_tasks(n * stores, [&](int task) {
           const int rep = options.first_replication + done + task / stores;
           slots[static_cast<size_t>(task)] = simulate_store(setup, rep, task % stores);
         });

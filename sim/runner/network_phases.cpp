@@ -1,8 +1,8 @@
 #include "sim/runner/network_phases.hpp"
 
-#include <tbb/parallel_for.h>
-
 #include <algorithm>
+
+#include "sim/runner/parallel_tasks.hpp"
 
 namespace larder {
 
@@ -23,7 +23,7 @@ PhasedRuns::PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::ta
       runs_(static_cast<size_t>(n_reps * stores_)),
       records_(static_cast<size_t>(n_reps), std::vector<PlanRecord>(setup.policies.size())) {
   arena_.execute([&] {
-    tbb::parallel_for(0, n_reps_ * stores_, [&](int task) {
+    parallel_tasks(n_reps_ * stores_, [&](int task) {
       runs_[static_cast<size_t>(task)] =
           std::make_unique<StoreRun>(setup_, first_rep + task / stores_, task % stores_);
     });
@@ -81,7 +81,7 @@ void PhasedRuns::run_until(int day) {
         const int every = setup_.policies[static_cast<size_t>(k)].quantity->network()->replan_days;
         next = std::min(next, (day_ / every + 1) * every);
       }
-      tbb::parallel_for(0, n_reps_, [&](int r) {
+      parallel_tasks(n_reps_, [&](int r) {
         for (int k : planned_) {
           const int every =
               setup_.policies[static_cast<size_t>(k)].quantity->network()->replan_days;
@@ -89,8 +89,8 @@ void PhasedRuns::run_until(int day) {
         }
       });
       const int begin = day_;
-      tbb::parallel_for(0, n_reps_ * stores_,
-                        [&](int task) { runs_[static_cast<size_t>(task)]->run_days(begin, next); });
+      parallel_tasks(n_reps_ * stores_,
+                     [&](int task) { runs_[static_cast<size_t>(task)]->run_days(begin, next); });
       day_ = next;
     }
   });

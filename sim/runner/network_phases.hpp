@@ -37,6 +37,10 @@ class PhasedRuns {
   void run_until(int day);
   /// The plan policy `policy` would make for replication `first_rep + rep` on day `day_`.
   NetworkPlan plan(int rep, int policy, bool detail) const;
+  /// The run of store `store` in replication `first_rep + rep` (after run_until: its last day).
+  const StoreRun& run(int rep, int store) const {
+    return *runs_[static_cast<size_t>(rep * stores_ + store)];
+  }
   /// The tallies of task r * stores + s.
   std::vector<StoreTallies> tallies() const;
   /// What the plans said, [rep][policy] (empty records for policies that do not plan).

@@ -42,7 +42,8 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
 
   const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
                                (pilot.bytes_per_item_and_policy() + sizeof(Tally));
-  const std::size_t model = static_cast<size_t>(stores * items) * demand.bytes_per_store_item();
+  const std::size_t model =
+      static_cast<size_t>(stores) * static_cast<size_t>(items) * demand.bytes_per_store_item();
   // Results: the totals and the breakdown rows of every policy and replication.
   std::size_t rows = 0;
   for (const Policy& p : policies) {

@@ -2,20 +2,44 @@
 
 #include <fmt/format.h>
 
+#include <string_view>
+
 namespace larder {
 
 void Diagnostics::error(Location where, std::string message, std::string hint) {
   items_.push_back({std::move(where), std::move(message), std::move(hint)});
 }
 
+namespace {
+
+/// Control characters (a NUL in an id, an escape sequence) shown as \xNN, so a message is one
+/// visible line and a NUL never cuts it short.
+std::string printable(std::string_view text) {
+  std::string out;
+  out.reserve(text.size());
+  for (const char c : text) {
+    const auto b = static_cast<unsigned char>(c);
+    if (b < 0x20 || b == 0x7F) {
+      out += fmt::format("\\x{:02X}", b);
+    } else {
+      out += c;
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
 std::string format_diagnostic(const Diagnostic& d) {
   std::string out;
+  const std::string message = printable(d.message);
+  const std::string file = printable(d.where.file);
   if (d.where.line > 0) {
-    out = fmt::format("{}:{}:{}: error: {}", d.where.file, d.where.line, d.where.column, d.message);
+    out = fmt::format("{}:{}:{}: error: {}", file, d.where.line, d.where.column, message);
   } else {
-    out = fmt::format("{}: error: {}", d.where.file, d.message);
+    out = fmt::format("{}: error: {}", file, message);
   }
-  if (!d.hint.empty()) out += fmt::format("\n  hint: {}", d.hint);
+  if (!d.hint.empty()) out += fmt::format("\n  hint: {}", printable(d.hint));
   return out;
 }
 

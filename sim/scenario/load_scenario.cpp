@@ -22,6 +22,8 @@
 #include "sim/scenario/iso_date.hpp"
 #include "sim/scenario/params.hpp"
 #include "sim/scenario/weekdays.hpp"
+#include "sim/scenario/yaml_guard.hpp"
+#include "sim/scenario/yaml_stall.hpp"
 
 namespace larder {
 
@@ -29,6 +31,15 @@ namespace {
 
 constexpr int kMaxReplications = 1000000;
 constexpr int kMaxGeneratedStores = 1000000;
+// Upper bounds that keep counts within `int`, arrays small and sums finite (README, "Limits").
+constexpr int kMaxDays = 100000;  ///< horizon.days: about 270 years
+constexpr int kMaxShelfLife = 365;
+constexpr int kMaxLeadTime = 365;
+constexpr int kMaxPackSize = 1000000;
+constexpr int kMaxShelfCapacity = 1000000000;
+constexpr double kMaxDailyMean = 1e8;  ///< demand per store-item-day, after every factor
+constexpr double kMaxFactor = 1000;    ///< weekday, event, store-size and uplift factors
+constexpr double kMaxMoney = 1e9;      ///< any price, cost or value per unit (and kg per unit)
 /// Slack for sums of shares written in decimal (0.34 + 0.56 + 0.1 is a little above 1 in binary).
 constexpr double kShareSumSlack = 1e-9;
 
@@ -324,12 +335,12 @@ std::optional<IntradayDraft> read_intraday(const YAML::Node& node, const std::st
 }
 
 void read_demand_fields(Params& p, DemandDraft& d, const ItemContext& ctx) {
-  d.base = number_field(p, "base", Range::at_least(0));
+  d.base = number_field(p, "base", Range::between(0, kMaxDailyMean));
   if (p.has("weekday")) {
     d.weekday.given = true;
     d.weekday.where = p.location("weekday");
     d.weekday.value = read_weekday_values(p.raw("weekday"), p.path_of("weekday"),
-                                          Range::at_least(0), p.file(), p.diagnostics());
+                                          Range::between(0, kMaxFactor), p.file(), p.diagnostics());
   }
   if (p.has("distribution")) {
     d.family.given = true;
@@ -339,8 +350,8 @@ void read_demand_fields(Params& p, DemandDraft& d, const ItemContext& ctx) {
     if (f == "negative_binomial") d.family.value = DemandFamily::negative_binomial;
     if (f == "normal") d.family.value = DemandFamily::normal;
   }
-  d.cv = number_field(p, "cv", Range::above(0));
-  d.dispersion = number_field(p, "dispersion", Range::above(0));
+  d.cv = number_field(p, "cv", Range{0.0, 100.0, true});
+  d.dispersion = number_field(p, "dispersion", Range::at_least(0.001));
   if (p.has("intraday")) {
     d.intraday.given = true;
     d.intraday.where = p.location("intraday");
@@ -369,9 +380,9 @@ void read_next_day(Params& p, Field<NextDayDraft>& f) {
   auto np = p.mapping("next_day");
   if (!np) return;
   NextDayDraft d;
-  d.price = number_field(*np, "price", Range::at_least(0));
+  d.price = number_field(*np, "price", Range::between(0, kMaxMoney));
   read_leftovers(*np, "fallback", {"discard", "salvage", "donate"}, d.fallback);
-  d.bargain_demand = number_field(*np, "bargain_demand", Range::at_least(0));
+  d.bargain_demand = number_field(*np, "bargain_demand", Range::between(0, kMaxDailyMean));
   np->finish();
   f.value = d;
 }
@@ -399,8 +410,8 @@ void read_markdown(Params& p, Field<MarkdownDraft>& f, const ItemContext& ctx) {
       d.from_hour.value.reset();
     }
   }
-  d.price = number_field(*mp, "price", Range::at_least(0));
-  d.uplift = number_field(*mp, "uplift", Range::at_least(0));
+  d.price = number_field(*mp, "price", Range::between(0, kMaxMoney));
+  d.uplift = number_field(*mp, "uplift", Range::between(0, kMaxFactor));
   mp->finish();
   f.value = d;
 }
@@ -448,20 +459,20 @@ void read_substitutes(Params& p, std::vector<SubstituteRef>& out) {
 
 /// Reads every item key but `id` that is written in `p` (an item or item_defaults).
 void read_item_fields(Params& p, ItemDraft& d, const ItemContext& ctx) {
-  d.price = number_field(p, "price", Range::at_least(0));
-  d.unit_cost = number_field(p, "unit_cost", Range::at_least(0));
-  d.shelf_life_days = integer_field(p, "shelf_life_days", Range::at_least(1));
-  d.pack_size = integer_field(p, "pack_size", Range::at_least(1));
-  d.shelf_capacity = integer_field(p, "shelf_capacity", Range::at_least(1));
+  d.price = number_field(p, "price", Range::between(0, kMaxMoney));
+  d.unit_cost = number_field(p, "unit_cost", Range::between(0, kMaxMoney));
+  d.shelf_life_days = integer_field(p, "shelf_life_days", Range::between(1, kMaxShelfLife));
+  d.pack_size = integer_field(p, "pack_size", Range::between(1, kMaxPackSize));
+  d.shelf_capacity = integer_field(p, "shelf_capacity", Range::between(1, kMaxShelfCapacity));
   read_leftovers(p, "leftovers", {"discard", "salvage", "donate", "discount_next_day"},
                  d.leftovers);
   read_next_day(p, d.next_day);
   read_markdown(p, d.markdown, ctx);
-  d.salvage_value = number_field(p, "salvage_value", Range::at_least(0));
-  d.disposal_cost = number_field(p, "disposal_cost", Range::at_least(0));
-  d.stockout_penalty = number_field(p, "stockout_penalty", Range::at_least(0));
-  d.weight_kg = number_field(p, "weight_kg", Range::at_least(0));
-  d.co2e_kg = number_field(p, "co2e_kg", Range::at_least(0));
+  d.salvage_value = number_field(p, "salvage_value", Range::between(0, kMaxMoney));
+  d.disposal_cost = number_field(p, "disposal_cost", Range::between(0, kMaxMoney));
+  d.stockout_penalty = number_field(p, "stockout_penalty", Range::between(0, kMaxMoney));
+  d.weight_kg = number_field(p, "weight_kg", Range::between(0, kMaxMoney));
+  d.co2e_kg = number_field(p, "co2e_kg", Range::between(0, kMaxMoney));
   read_attributes(p, d.attributes);
   if (p.has("demand")) {
     d.demand.given = true;
@@ -662,6 +673,7 @@ class ScenarioReader {
     read_demand_shocks(top);
     read_policies(top);
     read_baseline(top);
+    if (auto dp = top.mapping("drill")) scenario_.drill = read_drill(*dp, scenario_);
     top.finish();
     return scenario_;
   }
@@ -709,7 +721,7 @@ class ScenarioReader {
     auto hp = top.mapping("horizon");
     if (!hp) return;
     if (hp->has("days")) {
-      const auto days = hp->optional_integer("days", Range::at_least(1));
+      const auto days = hp->optional_integer("days", Range::between(1, kMaxDays));
       days_ok_ = days.has_value();
       h.days = days.value_or(h.days);
     }
@@ -819,7 +831,7 @@ class ScenarioReader {
         const Range range = days_ok_ ? Range::between(0, days - 1) : Range::at_least(0);
         e.day = ep.optional_integer("day", range).value_or(0);
       }
-      e.demand = ep.number("demand", 1.0, Range::at_least(0));
+      e.demand = ep.number("demand", 1.0, Range::between(0, kMaxFactor));
       e.closed = ep.boolean("closed", false);
       if (ep.has("stores")) {
         const YAML::Node stores = ep.raw("stores");
@@ -885,7 +897,7 @@ class ScenarioReader {
         claim_id(ids, *id, path, sp, "id");
         store.id = *id;
       }
-      store.size = sp.number("size", store.size, Range::above(0));
+      store.size = sp.number("size", store.size, Range{0.0, kMaxFactor, true});
       if (sp.has("open_weekdays")) {
         const auto set =
             read_weekday_set(sp.raw("open_weekdays"), sp.path_of("open_weekdays"), file_, diag_);
@@ -907,7 +919,7 @@ class ScenarioReader {
     }
     double cv = 0.0;
     if (auto size = gp.mapping("size")) {
-      cv = size->number("lognormal_cv", 0.0, Range::at_least(0));
+      cv = size->number("lognormal_cv", 0.0, Range::between(0, 10));
       size->finish();
     }
     gp.finish();
@@ -994,6 +1006,7 @@ class ScenarioReader {
         pending.push_back(
             {scenario_.items.size(), ip.path_of("substitutes"), std::move(draft.substitutes)});
       }
+      check_demand_scale(item, ip);
       scenario_.items.push_back(std::move(item));
     }
     if (defaults.next_day.given && !next_day_default_used && !scenario_.items.empty()) {
@@ -1086,7 +1099,8 @@ class ScenarioReader {
     auto lp = top.mapping("logistics");
     if (!lp) return;
     Logistics& l = scenario_.logistics;
-    l.lead_time_days = lp->integer("lead_time_days", l.lead_time_days, Range::at_least(1));
+    l.lead_time_days =
+        lp->integer("lead_time_days", l.lead_time_days, Range::between(1, kMaxLeadTime));
     if (lp->has("delivery_weekdays")) {
       const auto set = read_weekday_set(lp->raw("delivery_weekdays"),
                                         lp->path_of("delivery_weekdays"), file_, diag_);
@@ -1159,6 +1173,30 @@ class ScenarioReader {
     }
   }
 
+  /// The largest daily mean of `item` at any store (base x weekday x store size x the event
+  /// multipliers of one day: an upper bound) must stay within kMaxDailyMean, so that counts fit
+  /// in `int` and every sum stays finite.
+  void check_demand_scale(const Item& item, Params& ip) {
+    double size = scenario_.stores.empty() ? 1.0 : 0.0;
+    for (const Store& st : scenario_.stores) size = std::max(size, st.size);
+    std::map<int, double> per_day;
+    for (const CalendarEvent& e : scenario_.calendar.events) {
+      per_day.emplace(e.day, 1.0).first->second *= e.demand;
+    }
+    double event = 1.0;
+    for (const auto& [day, factor] : per_day) event = std::max(event, factor);
+    double weekday = 0.0;
+    for (double w : item.demand.weekday) weekday = std::max(weekday, w);
+    const double peak = item.demand.base * weekday * size * event;
+    if (peak > kMaxDailyMean) {
+      ip.error("demand",
+               fmt::format("{}'s demand reaches a mean of {:.3g} units a day (base x weekday x "
+                           "store size x event); the limit is {:.0f} per store-item-day",
+                           ip.path(), peak, kMaxDailyMean),
+               "lower demand.base, or split the item or the store");
+    }
+  }
+
   std::optional<PartSpec> read_required_part(Params& pp, std::string_view key, const char* name_key,
                                              const char* example) {
     if (!pp.has(key)) {
@@ -1200,8 +1238,14 @@ class ScenarioReader {
 
 std::optional<Scenario> parse_document(const std::string& text, const std::string& file,
                                        Diagnostics& diag) {
+  if (!check_yaml_text(text, file, diag)) return std::nullopt;  // size, bytes, depth
   std::vector<YAML::Node> docs;
   try {
+    if (const auto stall = find_yaml_stall(text)) {  // LoadAll would never return
+      diag.error({file, stall->line + 1, stall->column + 1},
+                 fmt::format("invalid YAML: {}", stall->what));
+      return std::nullopt;
+    }
     docs = YAML::LoadAll(text);
   } catch (const YAML::ParserException& e) {
     const Location where =
@@ -1227,6 +1271,7 @@ std::optional<Scenario> parse_document(const std::string& text, const std::strin
                            describe_value(root)));
     return std::nullopt;
   }
+  if (!check_yaml_expansion(root, file, diag)) return std::nullopt;  // an alias bomb
   report_duplicate_keys(root, file, diag);
   return ScenarioReader(file, diag).read(root);
 }

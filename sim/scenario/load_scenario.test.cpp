@@ -492,9 +492,9 @@ items:
 policies: [{ name: p, forecast: { method: x }, quantity: { rule: y } }]
 baseline: q
 )") == Lines{"t.yaml:1:15: error: replications must be in [1, 1000000] (got 0)",
-             "t.yaml:2:18: error: horizon.days must be >= 1 (got 0)",
-             "t.yaml:5:12: error: items[0].price must be >= 0 (got -1)",
-             "t.yaml:7:22: error: items[0].shelf_life_days must be >= 1 (got 0)",
+             "t.yaml:2:18: error: horizon.days must be in [1, 100000] (got 0)",
+             "t.yaml:5:12: error: items[0].price must be in [0, 1000000000] (got -1)",
+             "t.yaml:7:22: error: items[0].shelf_life_days must be in [1, 365] (got 0)",
              "t.yaml:10:11: error: baseline 'q' is not one of the policies (p)\n"
              "  hint: did you mean 'p'?"});
 }
@@ -620,11 +620,11 @@ TEST_CASE("seed is an unsigned 64-bit integer", "[scenario]") {
 TEST_CASE("horizon ranges", "[scenario]") {
   // brief: days [364] >= 1, warmup_days [28] in [0, days-1].
   CHECK(problems("horizon: { days: 0 }\n") ==
-        Lines{"t.yaml:1:18: error: horizon.days must be >= 1 (got 0)"});
+        Lines{"t.yaml:1:18: error: horizon.days must be in [1, 100000] (got 0)"});
   CHECK(problems("horizon: { days: 2.5 }\n") ==
         Lines{"t.yaml:1:18: error: horizon.days must be a whole number (got 2.5)"});
   CHECK(problems("horizon: { days: 1e12 }\n") ==
-        Lines{"t.yaml:1:18: error: horizon.days is too large (got 1e12)"});
+        Lines{"t.yaml:1:18: error: horizon.days must be in [1, 100000] (got 1e12)"});
   CHECK(problems("horizon: { days: 10, warmup_days: 10 }\n") ==
         Lines{"t.yaml:1:35: error: horizon.warmup_days must be in [0, 9] (got 10)"});
   CHECK(problems("horizon: { warmup_days: -1 }\n") ==
@@ -722,7 +722,7 @@ TEST_CASE("calendar events", "[scenario]") {
   CHECK(problems("horizon: { days: 30, warmup_days: 0 }\ncalendar: { events: [{ day: 30 }] }\n") ==
         Lines{"t.yaml:2:29: error: calendar.events[0].day must be in [0, 29] (got 30)"});
   CHECK(problems("calendar: { events: [{ day: 1, demand: -1 }] }\n") ==
-        Lines{"t.yaml:1:40: error: calendar.events[0].demand must be >= 0 (got -1)"});
+        Lines{"t.yaml:1:40: error: calendar.events[0].demand must be in [0, 1000] (got -1)"});
   CHECK(problems("calendar: { events: [{ day: 1, closed: maybe }] }\n") ==
         Lines{"t.yaml:1:40: error: calendar.events[0].closed must be true or false (got maybe)"});
 }
@@ -768,7 +768,7 @@ TEST_CASE("store lists", "[scenario]") {
               "  hint: stores[0].id is at line 2"});
   // brief: size [1] > 0.
   CHECK(problems("stores: [{ id: a, size: 0 }]\n") ==
-        Lines{"t.yaml:1:25: error: stores[0].size must be > 0 (got 0)"});
+        Lines{"t.yaml:1:25: error: stores[0].size must be in (0, 1000] (got 0)"});
   CHECK(problems("stores: [{ id: a, size: .inf }]\n") ==
         Lines{"t.yaml:1:25: error: stores[0].size must be a finite number (got .inf)"});
 }
@@ -798,7 +798,7 @@ TEST_CASE("generated stores: count and size checks", "[scenario]") {
   CHECK(problems("stores: { count: 0 }\n") ==
         Lines{"t.yaml:1:18: error: stores.count must be in [1, 1000000] (got 0)"});
   CHECK(problems("stores: { count: 3, size: { lognormal_cv: -0.1 } }\n") ==
-        Lines{"t.yaml:1:43: error: stores.size.lognormal_cv must be >= 0 (got -0.1)"});
+        Lines{"t.yaml:1:43: error: stores.size.lognormal_cv must be in [0, 10] (got -0.1)"});
   CHECK(problems("stores: { count: 3, id: x }\n") ==
         Lines{"t.yaml:1:21: error: unknown key 'id' in stores"});
   CHECK(problems("stores: { count: 3, size: 0.3 }\n") ==
@@ -827,16 +827,16 @@ TEST_CASE("item lists and ids", "[scenario]") {
 TEST_CASE("item numbers are range-checked", "[scenario]") {
   // brief (and scenario.md: prices >= 0, shelf life >= 1): the range of every item number.
   const std::vector<std::pair<std::string, std::string>> cases = {
-      {"price: -1", "items[0].price must be >= 0 (got -1)"},
-      {"unit_cost: -1", "items[0].unit_cost must be >= 0 (got -1)"},
-      {"shelf_life_days: 0", "items[0].shelf_life_days must be >= 1 (got 0)"},
+      {"price: -1", "items[0].price must be in [0, 1000000000] (got -1)"},
+      {"unit_cost: -1", "items[0].unit_cost must be in [0, 1000000000] (got -1)"},
+      {"shelf_life_days: 0", "items[0].shelf_life_days must be in [1, 365] (got 0)"},
       {"shelf_life_days: 1.5", "items[0].shelf_life_days must be a whole number (got 1.5)"},
-      {"pack_size: 0", "items[0].pack_size must be >= 1 (got 0)"},
-      {"salvage_value: -1", "items[0].salvage_value must be >= 0 (got -1)"},
-      {"disposal_cost: -1", "items[0].disposal_cost must be >= 0 (got -1)"},
-      {"stockout_penalty: -1", "items[0].stockout_penalty must be >= 0 (got -1)"},
-      {"weight_kg: -1", "items[0].weight_kg must be >= 0 (got -1)"},
-      {"co2e_kg: -1", "items[0].co2e_kg must be >= 0 (got -1)"},
+      {"pack_size: 0", "items[0].pack_size must be in [1, 1000000] (got 0)"},
+      {"salvage_value: -1", "items[0].salvage_value must be in [0, 1000000000] (got -1)"},
+      {"disposal_cost: -1", "items[0].disposal_cost must be in [0, 1000000000] (got -1)"},
+      {"stockout_penalty: -1", "items[0].stockout_penalty must be in [0, 1000000000] (got -1)"},
+      {"weight_kg: -1", "items[0].weight_kg must be in [0, 1000000000] (got -1)"},
+      {"co2e_kg: -1", "items[0].co2e_kg must be in [0, 1000000000] (got -1)"},
       {"price: cheap", "items[0].price must be a number (got cheap)"},
   };
   for (const auto& [line, message] : cases) {
@@ -894,7 +894,7 @@ TEST_CASE("demand weekday multipliers", "[scenario]") {
               "(got Sat)\n  hint: did you mean 'sat'? " +
               std::string(kWeekdays)});
   CHECK(problems(head + "{ sat: -1 } } }]\n") ==
-        Lines{"t.yaml:1:77: error: items[0].demand.weekday.sat must be >= 0 (got -1)"});
+        Lines{"t.yaml:1:77: error: items[0].demand.weekday.sat must be in [0, 1000] (got -1)"});
   CHECK(problems(head + "[1, 1] } }]\n") ==
         Lines{"t.yaml:1:70: error: items[0].demand.weekday must be a mapping from weekday to "
               "number such as { mon: 0.9 } (got a list)"});
@@ -919,9 +919,9 @@ TEST_CASE("demand distribution and its spread parameter", "[scenario]") {
               "parameter\n  hint: remove dispersion, or set distribution: negative_binomial or "
               "normal"});
   CHECK(problems(head + "distribution: normal, cv: 0 } }]\n") ==
-        Lines{"t.yaml:1:87: error: items[0].demand.cv must be > 0 (got 0)"});
+        Lines{"t.yaml:1:87: error: items[0].demand.cv must be in (0, 100] (got 0)"});
   CHECK(problems(head + "distribution: normal, dispersion: -2 } }]\n") ==
-        Lines{"t.yaml:1:95: error: items[0].demand.dispersion must be > 0 (got -2)"});
+        Lines{"t.yaml:1:95: error: items[0].demand.dispersion must be >= 0.001 (got -2)"});
 }
 
 TEST_CASE("item_defaults are checked where they are written", "[scenario]") {
@@ -933,10 +933,11 @@ TEST_CASE("item_defaults are checked where they are written", "[scenario]") {
       Lines{
           "t.yaml:1:18: error: item_defaults cannot set id\n  hint: every item gives its own id"});
   // Reported once at item_defaults, not once per item.
-  CHECK(problems("item_defaults: { disposal_cost: -1 }\n"
-                 "items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 } }, "
-                 "{ id: b, price: 1, unit_cost: 1, demand: { base: 1 } }]\n") ==
-        Lines{"t.yaml:1:33: error: item_defaults.disposal_cost must be >= 0 (got -1)"});
+  CHECK(
+      problems("item_defaults: { disposal_cost: -1 }\n"
+               "items: [{ id: a, price: 1, unit_cost: 1, demand: { base: 1 } }, "
+               "{ id: b, price: 1, unit_cost: 1, demand: { base: 1 } }]\n") ==
+      Lines{"t.yaml:1:33: error: item_defaults.disposal_cost must be in [0, 1000000000] (got -1)"});
   CHECK(problems("item_defaults: { prise: 1 }\n") ==
         Lines{"t.yaml:1:18: error: unknown key 'prise' in item_defaults\n"
               "  hint: did you mean 'price'?"});
@@ -990,7 +991,7 @@ TEST_CASE("logistics", "[scenario]") {
   CHECK(valid("logistics: { lead_time_days: 2 }\n").logistics.lead_time_days == 2);
   // brief: lead_time_days integer >= 1.
   CHECK(problems("logistics: { lead_time_days: 0 }\n") ==
-        Lines{"t.yaml:1:30: error: logistics.lead_time_days must be >= 1 (got 0)"});
+        Lines{"t.yaml:1:30: error: logistics.lead_time_days must be in [1, 365] (got 0)"});
   // model.md: deliveries only happen on delivery weekdays.
   const Scenario d = valid("logistics: { delivery_weekdays: [mon, wed, fri] }\n");
   const larder::WeekdaySet mon_wed_fri = {true, false, true, false, true, false, false};
@@ -1097,8 +1098,9 @@ TEST_CASE("shelf capacity", "[scenario]") {
   // model.md, step 6: orders are capped by shelf capacity when it is set (units, >= 1).
   CHECK(valid("item_defaults: { shelf_capacity: 30 }\n").items[0].shelf_capacity == 30);
   CHECK(!valid("").items[0].shelf_capacity.has_value());
-  CHECK(problems("item_defaults: { shelf_capacity: 0 }\n") ==
-        Lines{"t.yaml:1:34: error: item_defaults.shelf_capacity must be >= 1 (got 0)"});
+  CHECK(
+      problems("item_defaults: { shelf_capacity: 0 }\n") ==
+      Lines{"t.yaml:1:34: error: item_defaults.shelf_capacity must be in [1, 1000000000] (got 0)"});
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -1285,12 +1287,13 @@ TEST_CASE("next_day errors", "[scenario]") {
         Lines{"t.yaml:2:108: error: items[0].next_day.price (2.5) must be at most items[0].price "
               "(2)\n  hint: a discounted unit sells at most at the full price"});
   CHECK(problems(keep + "{ price: -1 } }\n") ==
-        Lines{"t.yaml:2:108: error: items[0].next_day.price must be >= 0 (got -1)"});
+        Lines{"t.yaml:2:108: error: items[0].next_day.price must be in [0, 1000000000] (got -1)"});
   CHECK(problems(keep + "{ fallback: discount_next_day } }\n") ==
         Lines{"t.yaml:2:111: error: items[0].next_day.fallback must be one of discard, salvage, "
               "donate (got discount_next_day)"});
   CHECK(problems(keep + "{ bargain_demand: -0.1 } }\n") ==
-        Lines{"t.yaml:2:117: error: items[0].next_day.bargain_demand must be >= 0 (got -0.1)"});
+        Lines{"t.yaml:2:117: error: items[0].next_day.bargain_demand must be in [0, 100000000] "
+              "(got -0.1)"});
   CHECK(problems(keep + "{ prise: 1 } }\n") ==
         Lines{"t.yaml:2:101: error: unknown key 'prise' in items[0].next_day\n"
               "  hint: did you mean 'price'?"});
@@ -1377,7 +1380,7 @@ items:
         Lines{"t.yaml:2:93: error: items[0].markdown.price (3.5) must be at most items[0].price "
               "(3)\n  hint: a discounted unit sells at most at the full price"});
   CHECK(problems(head + "markdown: { from_hour: 17, uplift: -0.1 } }\n") ==
-        Lines{"t.yaml:2:94: error: items[0].markdown.uplift must be >= 0 (got -0.1)"});
+        Lines{"t.yaml:2:94: error: items[0].markdown.uplift must be in [0, 1000] (got -0.1)"});
   CHECK(problems(head + "markdown: 17 }\n") ==
         Lines{"t.yaml:2:69: error: items[0].markdown must be a mapping of keys to values "
               "(got 17)"});

@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "sim/drill/drill_spec.hpp"
 #include "sim/scenario/diagnostics.hpp"
 
 namespace larder {
@@ -179,7 +180,8 @@ struct Scenario {
   DemandShocks shocks;
   Logistics logistics;
   std::vector<PolicySpec> policies;
-  int baseline = 0;  ///< index into policies
+  int baseline = 0;                ///< index into policies
+  std::optional<DrillSpec> drill;  ///< `drill:`: a training exercise (larder drill)
 
   int scored_days() const { return horizon.days - horizon.warmup_days; }
   /// Weekday (0 = Monday) of day index `day`.

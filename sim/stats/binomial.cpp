@@ -2,6 +2,8 @@
 
 #include <cmath>
 
+#include "sim/stats/log_gamma.hpp"
+
 namespace larder {
 
 int binomial_inverse(double u, int n, double p) {
@@ -31,7 +33,7 @@ int binomial_inverse(double u, int n, double p, double log_q) {
   // Start at the mode, where the pmf is largest and cannot underflow.
   int k = static_cast<int>(std::floor((dn + 1.0) * p));
   if (k > n) k = n;
-  const double log_pmf = std::lgamma(dn + 1.0) - std::lgamma(k + 1.0) - std::lgamma(dn - k + 1.0) +
+  const double log_pmf = log_gamma(dn + 1.0) - log_gamma(k + 1.0) - log_gamma(dn - k + 1.0) +
                          k * std::log(p) + (dn - k) * std::log(q);
   const double pmf_mode = std::exp(log_pmf);
   // cdf at the mode: sum the pmf downward until terms vanish.

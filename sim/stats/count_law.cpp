@@ -5,6 +5,7 @@
 #include <numbers>
 #include <stdexcept>
 
+#include "sim/stats/log_gamma.hpp"
 #include "sim/stats/normal.hpp"
 
 namespace larder {
@@ -22,7 +23,7 @@ double stirling_error(double n) {
                      s4 = 1.0 / 1188.0;
     return (s0 - (s1 - (s2 - (s3 - s4 / nn) / nn) / nn) / nn) / n;
   }
-  return std::lgamma(n + 1.0) - (n + 0.5) * std::log(n) + n - 0.5 * kLn2Pi;
+  return log_gamma(n + 1.0) - (n + 0.5) * std::log(n) + n - 0.5 * kLn2Pi;
 }
 
 /// Deviance term x log(x / np) + np - x (x, np > 0), by its series in v = (x - np) / (x + np)

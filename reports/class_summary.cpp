@@ -1,0 +1,155 @@
+#include "reports/class_summary.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <limits>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+#include "reports/csv.hpp"
+#include "reports/number_format.hpp"
+#include "sim/scenario/diagnostics.hpp"
+
+namespace larder {
+
+namespace {
+
+using nlohmann::json;
+
+double num(const json& j) {
+  return j.is_number() ? j.get<double>() : std::numeric_limits<double>::quiet_NaN();
+}
+
+ClassRow row_of(const json& policy, const json& card, const std::string& source, double house) {
+  ClassRow r;
+  r.name = policy.at("name").get<std::string>();
+  r.role = policy.at("role").get<std::string>();
+  r.source = source;
+  const json& m = policy.at("metrics");
+  r.waste_units = num(m.at("waste_units"));
+  r.in_stock_at_close = num(m.at("in_stock_at_close"));
+  r.fill_rate = num(m.at("fill_rate"));
+  r.profit = num(m.at("profit"));
+  r.profit_vs_house = r.profit - house;
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  r.chasing_weight = r.pull_to_center = r.implied_service = r.justified_service = nan;
+  if (r.role == "trainee") {
+    const json& h = card.at("habits").at(0);
+    r.chasing_weight = num(h.at("chasing_weight").at("value"));
+    r.pull_to_center = num(h.at("pull_to_center").at("value"));
+    r.implied_service = num(h.at("implied_service"));
+    r.justified_service = num(h.at("justified_service"));
+  }
+  return r;
+}
+
+std::string cell(double v, int decimals) {
+  return format_number(v, decimals);
+}
+
+}  // namespace
+
+ClassSummary read_class(const std::vector<std::string>& inputs) {
+  ClassSummary s;
+  Diagnostics diag;
+  std::vector<ClassRow> references;
+  std::uint64_t first_seed = 0;
+  for (size_t k = 0; k < inputs.size(); ++k) {
+    std::filesystem::path file(inputs[k]);
+    if (std::filesystem::is_directory(file)) file /= "scorecard.json";
+    std::ifstream in(file);
+    if (!in) {
+      diag.error({file.string(), 0, 0}, "cannot read the scorecard",
+                 "give folders written by larder drill, or their scorecard.json files");
+      continue;
+    }
+    std::stringstream text;
+    text << in.rdbuf();
+    try {
+      const json card = json::parse(text.str());
+      if (card.value("format", "") != "larder-drill-scorecard") {
+        diag.error({file.string(), 1, 1}, "not a drill scorecard (scorecard.json of larder drill)");
+        continue;
+      }
+      const std::string scenario = card.at("scenario").get<std::string>();
+      const std::string store = card.at("store").get<std::string>();
+      const int days = card.at("days").get<int>();
+      const json& policies = card.at("policies");
+      const std::string house = policies.at(1).at("name").get<std::string>();
+      if (k == 0) {
+        s.scenario = scenario;
+        s.store = store;
+        s.days = days;
+        s.currency = card.value("currency", "");
+        s.house = house;
+        first_seed = card.at("seed").get<std::uint64_t>();
+      } else if (scenario != s.scenario || store != s.store || days != s.days || house != s.house) {
+        diag.error({file.string(), 1, 1},
+                   fmt::format("another exercise: scenario {}, store {}, {} days, house rule {} "
+                               "(the first file: {}, {}, {} days, {})",
+                               scenario, store, days, house, s.scenario, s.store, s.days, s.house),
+                   "a class view compares the scorecards of one exercise");
+        continue;
+      }
+      if (card.at("seed").get<std::uint64_t>() != first_seed) s.same_seed = false;
+      const double house_profit = num(policies.at(1).at("metrics").at("profit"));
+      s.rows.push_back(row_of(policies.at(0), card, file.string(), house_profit));
+      if (k == 0) {
+        for (size_t p = 1; p < policies.size(); ++p) {
+          references.push_back(row_of(policies.at(p), card, file.string(), house_profit));
+        }
+      }
+    } catch (const json::exception& e) {
+      diag.error({file.string(), 1, 1}, fmt::format("not a readable scorecard: {}", e.what()));
+    }
+  }
+  if (!diag.ok()) throw InputError(diag);
+  s.rows.insert(s.rows.end(), references.begin(), references.end());
+  return s;
+}
+
+std::string class_text(const ClassSummary& s) {
+  std::string out = fmt::format("Class view: scenario {}, store {}, {} drill days{}\n\n",
+                                s.scenario, s.store, s.days,
+                                s.same_seed ? ""
+                                            : " (trainees played different seeds: compare "
+                                              "each with the house on their own demand)");
+  size_t w = 12;
+  for (const auto& r : s.rows) w = std::max(w, r.name.size() + 2);
+  out += fmt::format("{:<{}}{:<12}{:>8}{:>10}{:>8}{:>12}{:>13}{:>8}{:>8}{:>9}{:>11}\n", "name", w,
+                     "role", "waste", "in stock", "fill", "profit", "vs " + s.house, "chase",
+                     "pull", "service", "justified");
+  for (const auto& r : s.rows) {
+    const auto pct = [](double v) {
+      return std::isfinite(v) ? fmt::format("{:.1f}%", 100.0 * v) : std::string("");
+    };
+    const auto two = [](double v) {
+      return std::isfinite(v) ? fmt::format("{:.2f}", v) : std::string("");
+    };
+    out += fmt::format("{:<{}}{:<12}{:>8}{:>10}{:>8}{:>12}{:>13}{:>8}{:>8}{:>9}{:>11}\n", r.name, w,
+                       r.role, cell(r.waste_units, 0), pct(r.in_stock_at_close), pct(r.fill_rate),
+                       cell(r.profit, 2), cell(r.profit_vs_house, 2), two(r.chasing_weight),
+                       two(r.pull_to_center), pct(r.implied_service), pct(r.justified_service));
+  }
+  return out;
+}
+
+std::string class_csv(const ClassSummary& s) {
+  std::string out =
+      "name,role,source,waste_units,in_stock_at_close,fill_rate,profit,profit_vs_house,"
+      "chasing_weight,pull_to_center,implied_service,justified_service\n";
+  for (const auto& r : s.rows) {
+    out +=
+        fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_field(r.name), csv_field(r.role),
+                    csv_field(r.source), csv_number(r.waste_units), csv_number(r.in_stock_at_close),
+                    csv_number(r.fill_rate), csv_number(r.profit), csv_number(r.profit_vs_house),
+                    csv_number(r.chasing_weight), csv_number(r.pull_to_center),
+                    csv_number(r.implied_service), csv_number(r.justified_service));
+  }
+  return out;
+}
+
+}  // namespace larder

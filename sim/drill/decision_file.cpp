@@ -1,0 +1,224 @@
+#include "sim/drill/decision_file.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <array>
+#include <charconv>
+#include <fstream>
+#include <sstream>
+
+namespace larder {
+
+namespace {
+
+struct Field {
+  std::string text;
+  int column = 1;
+};
+
+std::vector<Field> split_fields(const std::string& line) {
+  std::vector<Field> out;
+  size_t start = 0;
+  while (true) {
+    const size_t end = std::min(line.find(',', start), line.size());
+    size_t a = start;
+    size_t b = end;
+    while (a < b && (line[a] == ' ' || line[a] == '\t')) ++a;
+    while (b > a && (line[b - 1] == ' ' || line[b - 1] == '\t')) --b;
+    if (b - a >= 2 && line[a] == '"' && line[b - 1] == '"') ++a, --b;
+    out.push_back({line.substr(a, b - a), static_cast<int>(a) + 1});
+    if (end == line.size()) break;
+    start = end + 1;
+  }
+  return out;
+}
+
+std::optional<long long> whole_number(const std::string& text) {
+  long long v = 0;
+  const char* first = text.data() + (!text.empty() && text[0] == '+' ? 1 : 0);
+  const char* last = text.data() + text.size();
+  if (first == last) return std::nullopt;
+  const auto [ptr, ec] = std::from_chars(first, last, v);
+  if (ec != std::errc() || ptr != last) return std::nullopt;
+  return v;
+}
+
+}  // namespace
+
+std::string decisions_csv(const DrillGame& game, const DrillDecisions& decided) {
+  const Scenario& s = game.scenario();
+  const DrillSpec& sp = game.spec();
+  const int lead = s.logistics.lead_time_days;
+  const std::string& store = s.stores[static_cast<size_t>(sp.store)].id;
+  std::string out = "day,store,item,quantity\n";
+  const auto row = [&](int day, int item, int quantity) {
+    out +=
+        fmt::format("{},{},{},{}\n", day, store, s.items[static_cast<size_t>(item)].id, quantity);
+  };
+  for (int d = -lead; d + lead < game.first_day(); ++d) {
+    const int a = d + lead;
+    if (!s.is_open(sp.store, a) ||
+        !s.logistics.delivery_weekdays[static_cast<size_t>(s.weekday_of(a))]) {
+      continue;
+    }
+    for (const int i : sp.items) row(d, i, game.house_order(d, i));
+  }
+  const auto turns = game.turns();
+  for (size_t j = 0; j < turns.size() && j < decided.size(); ++j) {
+    for (size_t k = 0; k < sp.items.size() && k < decided[j].size(); ++k) {
+      row(turns[j].order_day, sp.items[k], decided[j][k]);
+    }
+  }
+  return out;
+}
+
+DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
+                               const std::string& file) {
+  const Scenario& s = game.scenario();
+  const DrillSpec& sp = game.spec();
+  const auto turns = game.turns();
+  Diagnostics diag;
+  const auto at = [&](int line, int column) { return Location{file, line, column}; };
+  std::vector<std::string> lines;
+  {
+    std::istringstream in(text);
+    for (std::string l; std::getline(in, l);) {
+      if (!l.empty() && l.back() == '\r') l.pop_back();
+      lines.push_back(std::move(l));
+    }
+  }
+  if (!lines.empty() && lines[0].rfind("\xEF\xBB\xBF", 0) == 0) lines[0].erase(0, 3);
+  if (lines.empty() || lines[0].find_first_not_of(" \t") == std::string::npos) {
+    diag.error(at(1, 1), "expected the header day,store,item,quantity",
+               "the replay format of policies.md; larder drill writes it as decisions.csv");
+    throw InputError(diag);
+  }
+  constexpr std::array<const char*, 4> kNames = {"day", "store", "item", "quantity"};
+  std::array<int, 4> col{-1, -1, -1, -1};
+  const std::vector<Field> header = split_fields(lines[0]);
+  for (size_t c = 0; c < header.size(); ++c) {
+    const auto it = std::find(kNames.begin(), kNames.end(), header[c].text);
+    if (it == kNames.end()) {
+      diag.error(at(1, header[c].column), fmt::format("unknown column '{}'", header[c].text),
+                 header[c].text == "date" ? "a drill reads the column day (the scenario day on "
+                                            "which the order is placed), not date"
+                                          : "columns: day, store, item, quantity");
+      continue;
+    }
+    col[static_cast<size_t>(it - kNames.begin())] = static_cast<int>(c);
+  }
+  for (size_t k = 0; k < kNames.size(); ++k) {
+    if (col[k] < 0 && diag.ok()) {
+      diag.error(at(1, 1), fmt::format("the header has no column '{}'", kNames[k]),
+                 "columns: day, store, item, quantity");
+    }
+  }
+  if (!diag.ok()) throw InputError(diag);
+
+  const std::string& store = s.stores[static_cast<size_t>(sp.store)].id;
+  DrillDecisions decided(turns.size(), std::vector<int>(sp.items.size(), -1));
+  std::vector<std::vector<int>> line_of(turns.size(), std::vector<int>(sp.items.size(), 0));
+  for (size_t l = 1; l < lines.size(); ++l) {
+    const int line = static_cast<int>(l) + 1;
+    if (lines[l].find_first_not_of(" \t") == std::string::npos) continue;
+    const std::vector<Field> f = split_fields(lines[l]);
+    if (f.size() != header.size()) {
+      diag.error(at(line, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
+      continue;
+    }
+    const Field& day_f = f[static_cast<size_t>(col[0])];
+    const Field& store_f = f[static_cast<size_t>(col[1])];
+    const Field& item_f = f[static_cast<size_t>(col[2])];
+    const Field& q_f = f[static_cast<size_t>(col[3])];
+    const auto day = whole_number(day_f.text);
+    if (!day) {
+      diag.error(at(line, day_f.column),
+                 fmt::format("day must be a whole number (got '{}')", day_f.text));
+      continue;
+    }
+    if (store_f.text != store) {
+      diag.error(at(line, store_f.column),
+                 fmt::format("store '{}' is not the drill's store '{}'", store_f.text, store));
+      continue;
+    }
+    size_t k = 0;
+    while (k < sp.items.size() && s.items[static_cast<size_t>(sp.items[k])].id != item_f.text) {
+      ++k;
+    }
+    if (k == sp.items.size()) {
+      std::string ids;
+      for (const int i : sp.items) {
+        if (!ids.empty()) ids += ", ";
+        ids += s.items[static_cast<size_t>(i)].id;
+      }
+      diag.error(at(line, item_f.column),
+                 fmt::format("item '{}' is not one of the drill's items", item_f.text),
+                 fmt::format("drill items: {}", ids));
+      continue;
+    }
+    const auto q = whole_number(q_f.text);
+    if (!q || *q < 0 || *q > 1000000) {
+      diag.error(
+          at(line, q_f.column),
+          fmt::format("quantity must be a whole number in [0, 1000000] (got '{}')", q_f.text));
+      continue;
+    }
+    const int lead = s.logistics.lead_time_days;
+    if (*day + lead < game.first_day() && *day >= -lead) continue;  // the warm-up: the house's
+    const auto turn = std::find_if(turns.begin(), turns.end(),
+                                   [&](const DrillTurn& t) { return t.order_day == *day; });
+    if (turn == turns.end()) {
+      diag.error(at(line, day_f.column),
+                 fmt::format("no order is placed on day {}: the drill's orders are placed on "
+                             "days {} to {} for a delivery {} day(s) later, on open delivery "
+                             "days",
+                             *day, turns.empty() ? 0 : turns.front().order_day,
+                             turns.empty() ? 0 : turns.back().order_day, lead));
+      continue;
+    }
+    const size_t j = static_cast<size_t>(turn - turns.begin());
+    if (line_of[j][k] != 0) {
+      diag.error(at(line, 1), fmt::format("a second order of item '{}' placed on day {} (the "
+                                          "first is on line {})",
+                                          item_f.text, *day, line_of[j][k]));
+      continue;
+    }
+    line_of[j][k] = line;
+    decided[j][k] = static_cast<int>(*q);
+  }
+  int missing = 0;
+  for (size_t j = 0; j < turns.size(); ++j) {
+    for (size_t k = 0; k < sp.items.size(); ++k) {
+      if (decided[j][k] >= 0) continue;
+      if (++missing <= 5) {
+        diag.error(at(static_cast<int>(lines.size()), 1),
+                   fmt::format("no order of item '{}' placed on day {} (drill day {})",
+                               s.items[static_cast<size_t>(sp.items[k])].id, turns[j].order_day,
+                               turns[j].drill_day),
+                   "every drill day with a delivery needs one row per drill item (0 to order "
+                   "nothing)");
+      }
+    }
+  }
+  if (missing > 5) {
+    diag.error(at(static_cast<int>(lines.size()), 1),
+               fmt::format("{} more orders are missing", missing - 5));
+  }
+  if (!diag.ok()) throw InputError(diag);
+  return decided;
+}
+
+DrillDecisions read_decisions(const DrillGame& game, const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    Diagnostics diag;
+    diag.error({path, 0, 0}, fmt::format("cannot read '{}'", path));
+    throw InputError(diag);
+  }
+  std::stringstream text;
+  text << in.rdbuf();
+  return parse_decisions(game, text.str(), path);
+}
+
+}  // namespace larder

@@ -1,0 +1,229 @@
+#include "sim/fit/scenario_writer.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+
+#include "sim/scenario/diagnostics.hpp"
+
+namespace larder {
+
+namespace {
+
+/// A number with 5 significant digits, never in exponent form for ordinary values.
+std::string num(double v) {
+  return fmt::format("{:.5g}", v);
+}
+
+/// Text for a YAML double-quoted scalar: backslashes and quotes escaped.
+std::string quoted(const std::string& text) {
+  std::string out;
+  for (const char ch : text) {
+    if (ch == '\\' || ch == '"') out += '\\';
+    out += ch;
+  }
+  return out;
+}
+
+const ItemRecord* find_item(const WriteOptions& o, const std::string& id) {
+  for (const ItemRecord& r : o.items)
+    if (r.id == id) return &r;
+  return nullptr;
+}
+
+std::string weekdays_list(const std::array<bool, 7>& days) {
+  std::string s;
+  for (int w = 0; w < 7; ++w) {
+    if (!days[w]) continue;
+    if (!s.empty()) s += ", ";
+    s += kWeekdayNames[w];
+  }
+  return s;
+}
+
+std::string se_text(double se) {
+  return std::isfinite(se) ? num(se) : std::string("not determined");
+}
+
+void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i) {
+  const ItemEstimate& e = r.fit.items[i];
+  const IntradayFit& in = r.intraday[i];
+  const PersistenceFit& p = r.persistence[i];
+  const double censored = e.days > 0 ? 100.0 * e.censored_days / e.days : 0.0;
+  y += fmt::format("  # {}: {} store-days, {:.1f}% sold out; {} by AIC (", e.id, e.days, censored,
+                   to_string(e.family));
+  bool first = true;
+  for (int f = 0; f < 3; ++f) {
+    if (std::isnan(e.aic[f])) continue;
+    y += fmt::format("{}{} {:.1f}", first ? "" : ", ", to_string(static_cast<DemandFamily>(f)),
+                     e.aic[f]);
+    first = false;
+  }
+  y += ")\n";
+  y += fmt::format("  #   base {} (se {}); sales taken as demand would give {}\n", num(e.base),
+                   se_text(e.base_se), num(e.naive_base));
+  std::string wse;
+  for (int w = 0; w < 7; ++w) {
+    if (!e.weekday_seen[w]) continue;
+    wse +=
+        fmt::format("{}{} {}", wse.empty() ? "" : ", ", kWeekdayNames[w], se_text(e.weekday_se[w]));
+  }
+  y += fmt::format("  #   weekday se: {}\n", wse);
+  if (e.family != DemandFamily::poisson)
+    y += fmt::format("  #   cv {} (se {})\n", num(e.cv), se_text(e.cv_se));
+  if (in.exposure_base)
+    y += fmt::format("  #   base from sell-out times (exposure MLE, {} timed sell-outs): {}\n",
+                     in.timed_sellouts, num(*in.exposure_base));
+  if (p.pairs >= 3 && std::isfinite(p.correlation))
+    y += fmt::format(
+        "  #   lag-7 residual correlation {:.3f} (se {:.3f}, {} pairs of days that did "
+        "not sell out; biased toward 0)\n",
+        p.correlation, p.se, p.pairs);
+  if (!e.converged) y += "  #   warning: the likelihood search did not converge\n";
+  y += fmt::format("  - id: {}\n", e.id);
+  if (const ItemRecord* rec = find_item(o, e.id)) {
+    std::string attributes;  // blank cells: the item has no such attribute
+    for (const auto& [key, value] : rec->attributes) {
+      if (value.empty()) continue;
+      attributes += fmt::format("{} {}: \"{}\"", attributes.empty() ? "" : ",", key, quoted(value));
+    }
+    if (!attributes.empty()) y += fmt::format("    attributes: {{{} }}\n", attributes);
+    y += fmt::format("    price: {}\n    unit_cost: {}\n    shelf_life_days: {}\n", rec->price,
+                     rec->unit_cost, rec->shelf_life_days);
+  } else {
+    y += "    price: 1        # PLACEHOLDER: not in the history; set the real price\n";
+    y += "    unit_cost: 0.5  # PLACEHOLDER: set the real unit cost\n";
+  }
+  y += "    demand:\n";
+  y += fmt::format("      base: {}\n", num(e.base));
+  std::string wd;
+  for (int w = 0; w < 7; ++w) {
+    if (!e.weekday_seen[w]) continue;
+    wd += fmt::format("{}{}: {}", wd.empty() ? "" : ", ", kWeekdayNames[w], num(e.weekday[w]));
+  }
+  y += fmt::format("      weekday: {{ {} }}\n", wd);
+  y += fmt::format("      distribution: {}\n", to_string(e.family));
+  if (e.family != DemandFamily::poisson) y += fmt::format("      cv: {}\n", num(e.cv));
+  if (!in.shares.empty()) {
+    std::string w;
+    for (const double s : in.shares) w += fmt::format("{}{}", w.empty() ? "" : ", ", num(s));
+    y += fmt::format("      intraday: [{}]  # from {} days that did not sell out\n", w,
+                     in.profile_days);
+  }
+  if (r.substitution_asked) {
+    std::string all, written;
+    double sum = 0;
+    for (const SubstituteShare& x : r.substitution) {
+      if (x.out_item != i) continue;
+      all += fmt::format("{}{} {:.3f} (se {:.3f}, {} store-days)", all.empty() ? "" : ", ",
+                         r.data.items[x.substitute], x.share, x.se, x.store_days);
+      if (x.share > 2 * x.se) sum += std::min(x.share, 1.0);
+    }
+    const double scale = sum > 1.0 ? 1.0 / sum : 1.0;
+    for (const SubstituteShare& x : r.substitution) {
+      if (x.out_item != i || !(x.share > 2 * x.se)) continue;
+      written += fmt::format("{}{}: {}", written.empty() ? "" : ", ", r.data.items[x.substitute],
+                             num(std::min(x.share, 1.0) * scale));
+    }
+    y += fmt::format("    # substitution when out (stockout-state pooling): {}\n",
+                     all.empty() ? std::string("no hours with only this item out") : all);
+    if (!written.empty()) y += fmt::format("    substitutes: {{ {} }}\n", written);
+  }
+}
+
+}  // namespace
+
+FitResult fit_history(FitData data, const FitOptions& options) {
+  FitResult r;
+  r.data = std::move(data);
+  r.fit = fit_decomposition(r.data, options);
+  for (int i = 0; i < static_cast<int>(r.data.items.size()); ++i) {
+    r.intraday.push_back(fit_intraday(r.data, r.fit, i));
+    r.persistence.push_back(fit_lag7_persistence(r.data, r.fit, i));
+  }
+  r.substitution_asked = options.substitution;
+  if (options.substitution) r.substitution = fit_substitution(r.data, r.fit);
+  return r;
+}
+
+std::vector<std::string> items_without_prices(const FitResult& r, const WriteOptions& o) {
+  std::vector<std::string> out;
+  for (const ItemEstimate& e : r.fit.items)
+    if (e.fitted && !find_item(o, e.id)) out.push_back(e.id);
+  return out;
+}
+
+std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
+  const FitData& d = r.data;
+  bool any_item = false, any_store = false;
+  for (const auto& e : r.fit.items) any_item = any_item || e.fitted;
+  for (const auto& s : r.fit.stores) any_store = any_store || s.fitted;
+  if (!any_item || !any_store) {
+    Diagnostics diag;
+    diag.error({o.history_file, 0, 0},
+               any_store ? "no item has enough data to fit" : "no store has enough data to fit",
+               "an item needs at least 28 days that did not sell out, 3 on each weekday it sells");
+    throw InputError(std::move(diag));
+  }
+  const CivilDate last = add_days(d.first_date, d.days - 1);
+  std::string y;
+  y += fmt::format("# Fitted by `larder fit` from {}: {} rows, {} to {}, {} stores, {} items.\n",
+                   o.history_file, d.rows.size(), to_iso(d.first_date), to_iso(last),
+                   d.stores.size(), d.items.size());
+  y += "# Demand is corrected for sell-outs: a sold-out day counts as demand >= sales in a\n"
+       "# censored likelihood (README, \"Fitting a history\"). Standard errors (se) hold the\n"
+       "# store sizes at their estimates. Results are model estimates.\n";
+  if (o.items_file.empty()) {
+    y += "# PLACEHOLDERS: no --items file was given, so every price and unit_cost below is a\n"
+         "# marked placeholder (price 1, unit_cost 0.5): set them before comparing profits.\n";
+  } else {
+    y += fmt::format("# Prices, costs and shelf lives from {}.\n", o.items_file);
+  }
+  y += "format: 1\n";
+  y += fmt::format("name: {}\n", o.name);
+  y += "seed: 1\n";
+  y += fmt::format(
+      "horizon: {{ days: 364, warmup_days: 28, start_date: {} }}  # the year after "
+      "the history\n",
+      to_iso(add_days(last, 1)));
+  y += "replications: 100\n";
+  if (d.columns.hours > 0) {
+    y += fmt::format(
+        "calendar:\n  hours: {{ open: {}, close: {} }}  # the history's hourly columns\n",
+        d.columns.first_hour, d.columns.first_hour + d.columns.hours);
+  }
+  y += "stores:\n";
+  for (const StoreEstimate& s : r.fit.stores) {
+    if (!s.fitted) {
+      y += fmt::format("  # left out: {} ({})\n", s.id, s.problem);
+      continue;
+    }
+    y += fmt::format("  - {{ id: {}, size: {}", s.id, num(s.size));
+    if (weekdays_list(s.open_weekdays) != weekdays_list({true, true, true, true, true, true, true}))
+      y += fmt::format(", open_weekdays: [{}]", weekdays_list(s.open_weekdays));
+    y += fmt::format(" }}  # se {}, {} store-item-days\n", se_text(s.size_se), s.days);
+  }
+  y += "items:\n";
+  for (int i = 0; i < static_cast<int>(r.fit.items.size()); ++i) {
+    const ItemEstimate& e = r.fit.items[i];
+    if (!e.fitted) {
+      y += fmt::format("  # left out: {} ({})\n", e.id, e.problem);
+      continue;
+    }
+    write_item(y, r, o, i);
+  }
+  y += "# Starting policies: the same forecast and rule, with and without the censoring "
+       "correction.\n";
+  y += "policies:\n"
+       "  - name: newsvendor-on-sales\n"
+       "    forecast: { method: ses_weekday, alpha: 0.3 }\n"
+       "    censoring: ignore\n"
+       "    quantity: { rule: critical_fractile }\n"
+       "  - name: newsvendor-corrected\n"
+       "    forecast: { method: ses_weekday, alpha: 0.3 }\n"
+       "    censoring: normal_tail\n"
+       "    quantity: { rule: critical_fractile }\n";
+  return y;
+}
+
+}  // namespace larder

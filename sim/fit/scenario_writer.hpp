@@ -1,0 +1,48 @@
+#pragma once
+// The scenario `larder fit` writes: valid v1 YAML (scenario.md) with the fitted stores and
+// items, a comment block per item on the quality of its fit (family and AIC, standard errors,
+// share of sold-out days, days used, what sales-as-demand would have given, the lag-7 residual
+// correlation), items and stores with too little data listed in comments and left out (never
+// invented), and two starting policies that differ only in the censoring treatment.
+
+#include <string>
+#include <vector>
+
+#include "sim/fit/decomposition.hpp"
+#include "sim/fit/intraday_fit.hpp"
+#include "sim/fit/persistence_fit.hpp"
+#include "sim/fit/series.hpp"
+#include "sim/fit/substitution_fit.hpp"
+#include "sim/history/item_file.hpp"
+
+namespace larder {
+
+struct FitResult {
+  FitData data;
+  Decomposition fit;
+  std::vector<IntradayFit> intraday;        ///< per item
+  std::vector<PersistenceFit> persistence;  ///< per item
+  bool substitution_asked = false;
+  std::vector<SubstituteShare> substitution;  ///< with FitOptions::substitution
+};
+
+/// Fits everything `larder fit` writes from a history. Substitute shares are written (under the
+/// item that was out) when they exceed twice their standard error, cut to [0, 1] and scaled
+/// down together when an item's shares sum above 1.
+FitResult fit_history(FitData data, const FitOptions& options);
+
+struct WriteOptions {
+  std::string name;          ///< scenario name (a valid id)
+  std::string history_file;  ///< for the header comment
+  std::string items_file;    ///< "" = none: prices and costs are marked placeholders
+  std::vector<ItemRecord> items;
+};
+
+/// Items of the history that the item file does not list (they get placeholders).
+std::vector<std::string> items_without_prices(const FitResult& r, const WriteOptions& options);
+
+/// The scenario text. Throws InputError naming the history when no item or no store could be
+/// fitted (there would be nothing valid to write).
+std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& options);
+
+}  // namespace larder

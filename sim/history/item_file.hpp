@@ -1,0 +1,27 @@
+#pragma once
+// The item file that goes with a history (`larder history --items-out`, `larder fit --items`):
+// a CSV with one row per item, columns `item,price,unit_cost,shelf_life_days` (any order) and
+// every other column an attribute of the item (README, "History format").
+
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace larder {
+
+struct ItemRecord {
+  std::string id;
+  double price = 0;
+  double unit_cost = 0;
+  int shelf_life_days = 1;
+  std::vector<std::pair<std::string, std::string>>
+      attributes;  ///< every other column, in header order
+};
+
+/// Reads and checks an item file; every problem is reported at once as InputError
+/// (`file:line:col: error: ...`): missing, unknown-empty or duplicate columns, duplicate or empty
+/// item ids, prices and costs that are not numbers >= 0, shelf lives that are not whole numbers
+/// >= 1.
+std::vector<ItemRecord> read_item_file(const std::string& path);
+
+}  // namespace larder

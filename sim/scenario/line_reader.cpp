@@ -1,0 +1,55 @@
+#include "sim/scenario/line_reader.hpp"
+
+#include <cstring>
+
+namespace larder {
+
+LineReader::LineReader(std::istream& in) : buf_(in.rdbuf()), block_(std::size_t{1} << 16) {
+  eof_ = buf_ == nullptr;
+}
+
+bool LineReader::next(std::string& line, bool& too_long) {
+  line.clear();
+  too_long = false;
+  bool any = false;
+  while (true) {
+    if (pos_ == end_) {
+      if (eof_) break;
+      const std::streamsize got =
+          buf_->sgetn(block_.data(), static_cast<std::streamsize>(block_.size()));
+      pos_ = 0;
+      end_ = got > 0 ? static_cast<std::size_t>(got) : 0;
+      if (end_ == 0) {
+        eof_ = true;
+        break;
+      }
+    }
+    any = true;
+    const char* start = block_.data() + pos_;
+    const void* nl = std::memchr(start, '\n', end_ - pos_);
+    const std::size_t len = nl != nullptr
+                                ? static_cast<std::size_t>(static_cast<const char*>(nl) - start)
+                                : end_ - pos_;
+    if (!too_long) {
+      const std::size_t room = kMaxLine - line.size();
+      if (len > room) {
+        line.append(start, room);
+        too_long = true;
+      } else {
+        line.append(start, len);
+      }
+    }
+    pos_ += len;
+    if (nl != nullptr) {
+      ++pos_;
+      break;
+    }
+  }
+  if (!any) return false;
+  ++line_number_;
+  if (!line.empty() && line.back() == '\r') line.pop_back();
+  if (line_number_ == 1 && line.rfind("\xEF\xBB\xBF", 0) == 0) line.erase(0, 3);
+  return true;
+}
+
+}  // namespace larder
