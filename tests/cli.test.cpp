@@ -12,46 +12,23 @@
 #include <nlohmann/json.hpp>
 #include <sstream>
 
+#include "tests/cli_runner.test.hpp"
+
 namespace larder {
 namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int code = -1;
-  std::string out;
-  std::string err;
-};
+using test::Outcome;
+using test::slurp;
 
 fs::path scratch(const std::string& name) {
-  const fs::path p =
-      fs::temp_directory_path() / fmt::format("larder-cli-test-{}", ::getpid()) / name;
-  fs::remove_all(p);
-  fs::create_directories(p.parent_path());
-  return p;
-}
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
+  return test::scratch_path("cli-test", name);
 }
 
 /// Runs `larder ARGS`, capturing stdout, stderr and the exit code.
 Outcome larder(const std::string& args) {
-  const fs::path err = scratch("stderr.txt");
-  const std::string cmd = fmt::format("{} {} 2>{}", LARDER_BINARY, args, err.string());
-  Outcome o;
-  FILE* pipe = ::popen(cmd.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  std::array<char, 4096> buf{};
-  size_t n = 0;
-  while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) o.out.append(buf.data(), n);
-  const int status = ::pclose(pipe);
-  o.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  o.err = slurp(err);
-  return o;
+  return test::run_larder("cli-test", args);
 }
 
 fs::path write_scenario(const std::string& name, const std::string& text) {

@@ -12,50 +12,30 @@
 #include <fstream>
 #include <sstream>
 
+#include "tests/cli_runner.test.hpp"
+
 namespace larder {
 namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int code = -1;
-  std::string out;
-  std::string err;
-};
+using test::Outcome;
+using test::slurp;
 
 fs::path scratch(const std::string& name) {
-  const fs::path p =
-      fs::temp_directory_path() / fmt::format("larder-fit-test-{}", ::getpid()) / name;
+  const fs::path p = test::scratch_dir("fit-test") / name;
   fs::create_directories(p.parent_path());
   return p;
 }
 
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
 fs::path write_text(const std::string& name, const std::string& text) {
   const fs::path p = scratch(name);
-  std::ofstream(p) << text;
+  test::write_text(p, text);
   return p;
 }
 
 Outcome larder(const std::string& args) {
-  const fs::path err = scratch("stderr.txt");
-  const std::string cmd = fmt::format("{} {} 2>{}", LARDER_BINARY, args, err.string());
-  Outcome o;
-  FILE* pipe = ::popen(cmd.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  std::array<char, 4096> buf{};
-  size_t n = 0;
-  while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) o.out.append(buf.data(), n);
-  const int status = ::pclose(pipe);
-  o.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  o.err = slurp(err);
-  return o;
+  return test::run_larder("fit-test", args);
 }
 
 const char* kScenario = R"(format: 1

@@ -15,40 +15,23 @@
 
 #include "sim/history/history_reader.hpp"
 #include "sim/history/item_file.hpp"
+#include "tests/cli_runner.test.hpp"
 
 namespace larder {
 namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int code = -1;
-  std::string out;
-  std::string err;
-};
+using test::Outcome;
 
 fs::path scratch_dir() {
-  const fs::path p = fs::temp_directory_path() / fmt::format("larder-history-cli-{}", ::getpid());
+  const fs::path p = test::scratch_dir("history-cli");
   fs::create_directories(p);
   return p;
 }
 
 Outcome larder(const std::string& args) {
-  const fs::path err = scratch_dir() / "stderr.txt";
-  const std::string cmd = fmt::format("{} {} 2>{}", LARDER_BINARY, args, err.string());
-  Outcome o;
-  FILE* pipe = ::popen(cmd.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  std::array<char, 4096> buf{};
-  size_t n = 0;
-  while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) o.out.append(buf.data(), n);
-  const int status = ::pclose(pipe);
-  o.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  std::ifstream in(err);
-  std::stringstream s;
-  s << in.rdbuf();
-  o.err = s.str();
-  return o;
+  return test::run_larder("history-cli", args);
 }
 
 const char* kScenario = R"(format: 1

@@ -8,43 +8,9 @@
 #include <fstream>
 #include <sstream>
 
+#include "sim/scenario/csv_fields.hpp"
+
 namespace larder {
-
-namespace {
-
-struct Field {
-  std::string text;
-  int column = 1;
-};
-
-std::vector<Field> split_fields(const std::string& line) {
-  std::vector<Field> out;
-  size_t start = 0;
-  while (true) {
-    const size_t end = std::min(line.find(',', start), line.size());
-    size_t a = start;
-    size_t b = end;
-    while (a < b && (line[a] == ' ' || line[a] == '\t')) ++a;
-    while (b > a && (line[b - 1] == ' ' || line[b - 1] == '\t')) --b;
-    if (b - a >= 2 && line[a] == '"' && line[b - 1] == '"') ++a, --b;
-    out.push_back({line.substr(a, b - a), static_cast<int>(a) + 1});
-    if (end == line.size()) break;
-    start = end + 1;
-  }
-  return out;
-}
-
-std::optional<long long> whole_number(const std::string& text) {
-  long long v = 0;
-  const char* first = text.data() + (!text.empty() && text[0] == '+' ? 1 : 0);
-  const char* last = text.data() + text.size();
-  if (first == last) return std::nullopt;
-  const auto [ptr, ec] = std::from_chars(first, last, v);
-  if (ec != std::errc() || ptr != last) return std::nullopt;
-  return v;
-}
-
-}  // namespace
 
 std::string decisions_csv(const DrillGame& game, const DrillDecisions& decided) {
   const Scenario& s = game.scenario();
@@ -96,7 +62,7 @@ DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
   }
   constexpr std::array<const char*, 4> kNames = {"day", "store", "item", "quantity"};
   std::array<int, 4> col{-1, -1, -1, -1};
-  const std::vector<Field> header = split_fields(lines[0]);
+  const std::vector<CsvField> header = split_fields(lines[0]);
   for (size_t c = 0; c < header.size(); ++c) {
     const auto it = std::find(kNames.begin(), kNames.end(), header[c].text);
     if (it == kNames.end()) {
@@ -122,15 +88,15 @@ DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
   for (size_t l = 1; l < lines.size(); ++l) {
     const int line = static_cast<int>(l) + 1;
     if (lines[l].find_first_not_of(" \t") == std::string::npos) continue;
-    const std::vector<Field> f = split_fields(lines[l]);
+    const std::vector<CsvField> f = split_fields(lines[l]);
     if (f.size() != header.size()) {
       diag.error(at(line, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
       continue;
     }
-    const Field& day_f = f[static_cast<size_t>(col[0])];
-    const Field& store_f = f[static_cast<size_t>(col[1])];
-    const Field& item_f = f[static_cast<size_t>(col[2])];
-    const Field& q_f = f[static_cast<size_t>(col[3])];
+    const CsvField& day_f = f[static_cast<size_t>(col[0])];
+    const CsvField& store_f = f[static_cast<size_t>(col[1])];
+    const CsvField& item_f = f[static_cast<size_t>(col[2])];
+    const CsvField& q_f = f[static_cast<size_t>(col[3])];
     const auto day = whole_number(day_f.text);
     if (!day) {
       diag.error(at(line, day_f.column),

@@ -11,13 +11,6 @@
 
 namespace larder {
 
-std::int64_t day_number(const CivilDate& date) {
-  using namespace std::chrono;
-  const year_month_day ymd{year{date.year}, month{static_cast<unsigned>(date.month)},
-                           day{static_cast<unsigned>(date.day)}};
-  return sys_days{ymd}.time_since_epoch().count();
-}
-
 SeriesBuilder::SeriesBuilder(std::string file) {
   data_.file = std::move(file);
 }

@@ -62,7 +62,4 @@ class SeriesBuilder {
   int hours_ = -1;  ///< hourly values per row, from the first row
 };
 
-/// Days since 1970-01-01 of a real date (proleptic Gregorian).
-std::int64_t day_number(const CivilDate& date);
-
 }  // namespace larder

@@ -39,17 +39,6 @@ const char* kColumnsHint =
     "columns: date,store,item,delivered,sold,leftover,sold_out (any order), optionally "
     "sold_out_time (HH:MM) and hourly sales sales_HH (HH = the clock hour, consecutive)";
 
-/// Days since 1970-01-01 of a real date (H. Hinnant's days_from_civil), to order dates cheaply.
-long days_from_civil(const CivilDate& d) {
-  const int y = d.year - (d.month <= 2 ? 1 : 0);
-  const long era = (y >= 0 ? y : y - 399) / 400;
-  const auto yoe = static_cast<unsigned>(y - era * 400);
-  const auto m = static_cast<unsigned>(d.month);
-  const unsigned doy = (153 * (m > 2 ? m - 3 : m + 9) + 2) / 5 + static_cast<unsigned>(d.day) - 1;
-  const unsigned doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
-  return era * 146097 + static_cast<long>(doe) - 719468;
-}
-
 /// `HH:MM` (00:00 to 23:59, or 24:00) as minutes after midnight.
 std::optional<int> clock_minutes(std::string_view t) {
   if (t.size() != 5 || t[2] != ':') return std::nullopt;
@@ -215,7 +204,7 @@ class RowReader {
       problem(date_f.column, fmt::format("date {} is not a date in the calendar", date_f.text));
     } else {
       row_.date = *d;
-      day = days_from_civil(*d);
+      day = static_cast<long>(day_number(*d));
     }
     if (store_f.text.empty()) problem(store_f.column, "store is empty");
     if (item_f.text.empty()) problem(item_f.column, "item is empty");

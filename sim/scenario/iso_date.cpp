@@ -51,6 +51,10 @@ CivilDate add_days(const CivilDate& date, int days) {
           static_cast<int>(static_cast<unsigned>(ymd.day()))};
 }
 
+std::int64_t day_number(const CivilDate& date) {
+  return std::chrono::sys_days{to_ymd(date)}.time_since_epoch().count();
+}
+
 std::string to_iso(const CivilDate& date) {
   return fmt::format("{:04}-{:02}-{:02}", date.year, date.month, date.day);
 }

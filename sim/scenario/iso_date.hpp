@@ -2,6 +2,7 @@
 // Calendar dates written as ISO 8601 `YYYY-MM-DD` (proleptic Gregorian), for `horizon.start_date`
 // and for dated histories: day index t of a scenario is start_date + t days.
 
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -29,6 +30,9 @@ int weekday_of_date(const CivilDate& date);
 
 /// The real date `days` days after `date` (negative: before).
 CivilDate add_days(const CivilDate& date, int days);
+
+/// Days since 1970-01-01 (negative before), to order and subtract dates.
+std::int64_t day_number(const CivilDate& date);
 
 /// `YYYY-MM-DD`.
 std::string to_iso(const CivilDate& date);
