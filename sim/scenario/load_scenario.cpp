@@ -350,7 +350,7 @@ void read_demand_fields(Params& p, DemandDraft& d, const ItemContext& ctx) {
     if (f == "negative_binomial") d.family.value = DemandFamily::negative_binomial;
     if (f == "normal") d.family.value = DemandFamily::normal;
   }
-  d.cv = number_field(p, "cv", Range{0.0, 100.0, true});
+  d.cv = number_field(p, "cv", Range::between(0, 100));
   d.dispersion = number_field(p, "dispersion", Range::at_least(0.001));
   if (p.has("intraday")) {
     d.intraday.given = true;

@@ -918,8 +918,8 @@ TEST_CASE("demand distribution and its spread parameter", "[scenario]") {
         Lines{"t.yaml:1:73: error: items[0].demand.dispersion is given but poisson has no spread "
               "parameter\n  hint: remove dispersion, or set distribution: negative_binomial or "
               "normal"});
-  CHECK(problems(head + "distribution: normal, cv: 0 } }]\n") ==
-        Lines{"t.yaml:1:87: error: items[0].demand.cv must be in (0, 100] (got 0)"});
+  CHECK(problems(head + "distribution: normal, cv: -0.5 } }]\n") ==
+        Lines{"t.yaml:1:87: error: items[0].demand.cv must be in [0, 100] (got -0.5)"});
   CHECK(problems(head + "distribution: normal, dispersion: -2 } }]\n") ==
         Lines{"t.yaml:1:95: error: items[0].demand.dispersion must be >= 0.001 (got -2)"});
 }

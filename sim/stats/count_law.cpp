@@ -135,8 +135,14 @@ double sum_cdf_below(int q, double mode, double p_mode, Step step) {
 }
 
 /// The normal-count pieces: z of the cdf at count k is (k + 0.5 - mean) / sd.
+/// With sd 0 the count is the constant max(0, ceil(mean - 0.5)) (the rounding of the sampler).
+double constant_count(double mean) {
+  return std::max(0.0, std::ceil(mean - 0.5));
+}
+
 double normal_count_leftover(int q, double mean, double sd) {
   if (q <= 0) return 0.0;
+  if (sd == 0.0) return std::max(0.0, q - constant_count(mean));
   // Terms with z < -10 are below 8e-24 each; from where Phi rounds to 1 every term is 1.
   double k = std::max(0.0, std::ceil(mean - 0.5 - 10.0 * sd));
   const double end = q;
@@ -151,6 +157,7 @@ double normal_count_leftover(int q, double mean, double sd) {
 
 double normal_count_shortage(int q, double mean, double sd) {
   // sum over k >= q of P(D > k) = 1 - Phi((k + 0.5 - mean) / sd); P(D > k) = 1 for k < 0.
+  if (sd == 0.0) return std::max(0.0, constant_count(mean) - q);
   double k = q;
   double s = 0.0;
   if (k < 0.0) {
