@@ -26,7 +26,7 @@ class MpiSession {
 
  private:
   MpiWorld world_;
-  bool active_ = false;
+  [[maybe_unused]] bool active_ = false;  // used only in the MPI build
 };
 
 /// Gathers every rank's text on rank 0, in rank order; the other ranks get an empty list.

@@ -535,7 +535,7 @@ void StoreRun::split_customers(int item, int demand, int* acceptors, int* others
   const int a = binomial_inverse(choice_u_[static_cast<size_t>(rt.choice)], demand,
                                  setup_.scenario.discount_take_rate);
   split_count(a, plan, {u, hb - 1}, {acceptors, hb});
-  split_count(demand - a, plan, {u + hb - 1, hb - 1}, {others, hb});
+  split_count(demand - a, plan, {u + (hb - 1), hb - 1}, {others, hb});
 }
 
 void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, const int* demands) {
