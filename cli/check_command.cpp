@@ -18,6 +18,37 @@ std::string policy_text(const PolicySpec& p) {
   for (const auto& a : p.adjustments) s += fmt::format(", {}", a.method);
   return s;
 }
+
+/// The `drill:` section in words, for the trainer checking an exercise (events included: the
+/// trainee never runs check on the file they play).
+std::string drill_text(const Scenario& sc, const DrillSpec& d) {
+  std::string items;
+  for (int i : d.items) items += fmt::format("{}{}", items.empty() ? "" : ", ", sc.items[i].id);
+  std::string compare;
+  for (int p : d.compare)
+    compare += fmt::format("{}{}", compare.empty() ? "" : ", ", sc.policies[p].name);
+  std::string s = fmt::format(
+      "  drill         store {}, items {}; {} days after the warm-up\n"
+      "                compared with {} (house rule: {})\n",
+      sc.stores[d.store].id, items, d.days, compare, sc.policies[d.compare.front()].name);
+  for (const DrillEvent& e : d.events)
+    s += fmt::format("                day {}: demand x {} ({})\n", e.day, e.demand,
+                     e.announced ? "announced the day before" : "hidden from the trainee");
+  return s;
+}
+
+nlohmann::json drill_json(const Scenario& sc, const DrillSpec& d) {
+  nlohmann::json j;
+  j["store"] = sc.stores[d.store].id;
+  j["items"] = nlohmann::json::array();
+  for (int i : d.items) j["items"].push_back(sc.items[i].id);
+  j["days"] = d.days;
+  for (int p : d.compare) j["compare"].push_back(sc.policies[p].name);
+  j["events"] = nlohmann::json::array();
+  for (const DrillEvent& e : d.events)
+    j["events"].push_back({{"day", e.day}, {"demand", e.demand}, {"announced", e.announced}});
+  return j;
+}
 }  // namespace
 
 int check_command(const CommonOptions& args) {
@@ -58,11 +89,13 @@ int check_command(const CommonOptions& args) {
     j["baseline"] = baseline;
     for (const auto& p : sc.policies)
       j["policies"].push_back({{"name", p.name}, {"parts", policy_text(p)}});
+    if (sc.drill) j["drill"] = drill_json(sc, *sc.drill);
     fmt::print("{}\n", j.dump(2));
     return 0;
   }
   fmt::print("{}: scenario '{}' is valid\n", sc.file, sc.name);
-  fmt::print("  network       {} stores x {} items\n", sc.stores.size(), sc.items.size());
+  fmt::print("  network       {} store{} x {} item{}\n", sc.stores.size(),
+             sc.stores.size() == 1 ? "" : "s", sc.items.size(), sc.items.size() == 1 ? "" : "s");
   fmt::print("  horizon       {} days ({} warm-up, {} scored), {} replications, seed {}{}\n",
              sc.horizon.days, sc.horizon.warmup_days, sc.scored_days(), sc.replications, sc.seed,
              sc.seed_given ? "" : " (drawn at random)");
@@ -79,6 +112,7 @@ int check_command(const CommonOptions& args) {
   }
   fmt::print("  policies      {} (baseline: {})\n", sc.policies.size(), baseline);
   for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(p));
+  if (sc.drill) fmt::print("{}", drill_text(sc, *sc.drill));
   fmt::print("  estimate      about {} on {} thread{}, about {} of memory\n",
              format_duration(e.seconds), threads, threads == 1 ? "" : "s",
              format_bytes(e.memory_bytes));

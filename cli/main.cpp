@@ -101,7 +101,8 @@ int main(int argc, char** argv) {
   add_common(*run_cmd, run.common, false);
   run_cmd->add_option("-o,--out", run.out,
                       "output folder [larder-out/<scenario name>]: summary.json, metrics.csv, "
-                      "replications.csv, breakdown.csv, substitution.csv (with substitutes), "
+                      "replications.csv, breakdown.csv, pairs.csv (every pair of policies), "
+                      "substitution.csv (with substitutes), "
                       "report.html");
   run_cmd->add_option("--precision", run.precision,
                       "METRIC=HALF_WIDTH: add replications in batches until every policy's 95% "
@@ -123,9 +124,9 @@ int main(int argc, char** argv) {
                       "output folder instead of the results, for `larder merge`");
 
   larder::CommonOptions check;
-  auto* check_cmd = app.add_subcommand(
-      "check",
-      "validate a scenario and describe it: size, policies, estimated run time and memory");
+  auto* check_cmd = app.add_subcommand("check",
+                                       "validate a scenario and describe it: size, policies, a "
+                                       "drill exercise, estimated run time and memory");
   add_common(*check_cmd, check, true);
 
   larder::SweepArgs sweep;

@@ -23,10 +23,13 @@ Estimate policy_estimate(const RunResult& result, int policy, Metric m) {
   return report_estimate(values);
 }
 
+Estimate paired_difference(const RunResult& result, int a, int b, Metric m) {
+  return without_interval_below_two(
+      estimate_paired_difference(result.series(a, m), result.series(b, m), kReportLevel));
+}
+
 Estimate baseline_difference(const RunResult& result, int policy, Metric m) {
-  const std::vector<double> a = result.series(policy, m);
-  const std::vector<double> b = result.series(result.baseline, m);
-  return without_interval_below_two(estimate_paired_difference(a, b, kReportLevel));
+  return paired_difference(result, policy, result.baseline, m);
 }
 
 bool is_significant(const Estimate& difference) {

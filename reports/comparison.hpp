@@ -38,6 +38,10 @@ Estimate report_estimate(std::span<const double> values);
 /// Mean of metric `m` of policy `policy` over replications, with its 95% t interval.
 Estimate policy_estimate(const RunResult& result, int policy, Metric m);
 
+/// Paired difference (policy `a` minus policy `b`) of metric `m` over replications, with its
+/// 95% t interval.
+Estimate paired_difference(const RunResult& result, int a, int b, Metric m);
+
 /// Paired difference (policy minus baseline) of metric `m` over replications, with its 95% t
 /// interval.
 Estimate baseline_difference(const RunResult& result, int policy, Metric m);

@@ -6,6 +6,7 @@
 
 #include "reports/breakdown_csv.hpp"
 #include "reports/metrics_csv.hpp"
+#include "reports/pairs_csv.hpp"
 #include "reports/replications_csv.hpp"
 #include "reports/sample_run.test.hpp"
 #include "reports/summary_json.hpp"
@@ -14,20 +15,22 @@ namespace fs = std::filesystem;
 
 using larder::test::read_all;
 
-TEST_CASE("write_run_outputs creates the folder and writes the four files", "[reports]") {
+TEST_CASE("write_run_outputs creates the folder and writes its files", "[reports]") {
   larder::test::ScratchDir scratch("output-folder");
   const fs::path dir = scratch.path() / "larder-out" / "two-shops";
   larder::RunResult r = larder::test::sample_run();
   larder::write_run_outputs(r, dir);
   CHECK(larder::test::folder_entries(dir) ==
-        std::vector<std::string>{"breakdown.csv", "metrics.csv", "replications.csv",
+        std::vector<std::string>{"breakdown.csv", "metrics.csv", "pairs.csv", "replications.csv",
                                  "summary.json"});
   CHECK(read_all(dir / "breakdown.csv") == larder::breakdown_csv(r));
   CHECK(read_all(dir / "summary.json") == larder::summary_json_text(r));
   CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
   CHECK(read_all(dir / "replications.csv") == larder::replications_csv(r));
+  CHECK(read_all(dir / "pairs.csv") == larder::pairs_csv(r));
 
-  // A second run into the same folder replaces the files whole.
+  // A second run into the same folder replaces the files whole; with one policy there are no
+  // pairs, and the earlier pairs.csv is gone.
   r.policies.resize(1);
   r.values.resize(1);
   larder::write_run_outputs(r, dir);

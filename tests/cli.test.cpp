@@ -118,6 +118,31 @@ TEST_CASE("larder check validates and summarises", "[cli]") {
   CHECK(o.out.find("estimate") != std::string::npos);
 }
 
+TEST_CASE("larder check describes a drill exercise for its trainer", "[cli][drill]") {
+  // The expected lines are read off scenarios/drill-bakery.yaml's drill: section.
+  const std::string file =
+      (fs::path(LARDER_SOURCE_DIR) / "scenarios" / "drill-bakery.yaml").string();
+  const Outcome o = larder(fmt::format("check {}", file));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(
+      o.out.find("drill         store quay, items rye, croissant, bun; 28 days after the warm-up\n"
+                 "                compared with habit, newsvendor, oracle (house rule: habit)") !=
+      std::string::npos);
+  CHECK(o.out.find("day 12: demand x 1.6 (hidden from the trainee)") != std::string::npos);
+  CHECK(o.out.find("day 20: demand x 0.7 (announced the day before)") != std::string::npos);
+  const Outcome j = larder(fmt::format("check {} --format json", file));
+  REQUIRE(j.code == 0);
+  const auto doc = nlohmann::json::parse(j.out);
+  CHECK(doc["drill"]["items"] == nlohmann::json::array({"rye", "croissant", "bun"}));
+  CHECK(doc["drill"]["events"][0]["announced"] == false);
+  CHECK(doc["drill"]["events"][1]["demand"] == 0.7);
+  // A scenario without a drill says nothing about one.
+  const Outcome plain =
+      larder(fmt::format("check {}", write_scenario("nodrill.yaml", kSmall).string()));
+  CHECK(plain.out.find("  drill ") == std::string::npos);
+}
+
 TEST_CASE("every worked scenario in scenarios/ is valid", "[cli]") {
   int n = 0;
   for (const auto& entry : fs::directory_iterator(fs::path(LARDER_SOURCE_DIR) / "scenarios")) {

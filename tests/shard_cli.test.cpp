@@ -114,7 +114,7 @@ TEST_CASE("larder run --shard 1/3, 2/3, 3/3 and larder merge equal a single run,
   REQUIRE(m.code == 0);
   CHECK(m.err.find("merged 3 shard files (5 replications)") != std::string::npos);
   for (const char* name :
-       {"metrics.csv", "replications.csv", "breakdown.csv", "substitution.csv"}) {
+       {"metrics.csv", "replications.csv", "breakdown.csv", "pairs.csv", "substitution.csv"}) {
     INFO(name);
     REQUIRE(fs::exists(merged / name));
     CHECK(read_all(merged / name) == read_all(single / name));

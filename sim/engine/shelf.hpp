@@ -80,6 +80,11 @@ class Shelf {
     for (int a = 0; a + 1 < l; ++a) s[a] = s[a + 1];
     s[l - 1] = 0;
   }
+  /// Heap bytes held (for memory estimates).
+  std::size_t bytes() const {
+    return (life_.capacity() + offset_.capacity()) * sizeof(int) +
+           stock_.capacity() * sizeof(std::int32_t);
+  }
 
  private:
   std::int32_t* slots(int item) { return stock_.data() + offset_[static_cast<size_t>(item)]; }

@@ -15,6 +15,20 @@
 namespace larder {
 
 namespace {
+/// Heap bytes a vector holds.
+template <class T>
+std::size_t held(const std::vector<T>& v) {
+  return v.capacity() * sizeof(T);
+}
+std::size_t held(const SplitPlan& plan) {
+  return held(plan.p) + held(plan.log_q);
+}
+template <class T>
+std::size_t held_each(const std::vector<T>& plans) {
+  std::size_t b = held(plans);
+  for (const T& x : plans) b += held(x);
+  return b;
+}
 
 /// The stock of one item during a detailed day, by price tier.
 struct Pools {
@@ -119,6 +133,14 @@ struct StoreRun::Lane {
   std::vector<double> estimates;
   std::vector<OrderInput> inputs;
   std::vector<int> orders;
+
+  /// Heap bytes of the lane's own buffers (not its policy parts').
+  std::size_t bytes() const {
+    return sizeof(Lane) + shelf.bytes() + held(pipeline) + held(pipeline_view) + held(observed) +
+           held(tally) + held(goodwill) + held(demand) + held(next_day) + held(substituted) +
+           held(acceptors) + held(others) + held(pools) + held(sold_by_hour) + held(predicted) +
+           held(forecast) + held(day_forecast) + held(estimates) + held(inputs) + held(orders);
+  }
 };
 
 StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
@@ -328,13 +350,23 @@ void StoreRun::sales_by_hour(int policy, int item, std::span<int> out) const {
 }
 
 std::size_t StoreRun::bytes_per_item_and_policy() const {
-  int life = 0;
-  for (int l : shelf_life_) life = std::max(life, l);
-  std::size_t b = sizeof(std::int32_t) * static_cast<size_t>(life + lead_time_) +
-                  sizeof(Observation) + sizeof(Tally) + sizeof(DemandForecast) * 2 +
-                  sizeof(double) + sizeof(OrderInput) + sizeof(int);
-  if (!lanes_.empty()) b += lanes_.front()->forecaster->bytes_per_item();
-  return b;
+  // The mean over the policies, rounded up.
+  const size_t items = static_cast<size_t>(std::max(items_, 1));
+  std::size_t b = 0;
+  for (const auto& lane : lanes_) b += lane->bytes() + items * lane->forecaster->bytes_per_item();
+  const size_t per = items * std::max<size_t>(lanes_.size(), 1);
+  return (b + per - 1) / per;
+}
+
+std::size_t StoreRun::bytes_shared() const {
+  return sizeof(StoreRun) + held(shelf_life_) + held(open_) + held(delivery_) +
+         held(next_delivery_) + held(demand_streams_) + held(picking_streams_) + held(runtime_) +
+         held(demand_) + held(demand_u_) + held(mean_) + held(persistence_streams_) +
+         held(persistence_log_) + held(picking_u_) + held_each(hour_plans_) +
+         held_each(bargain_plans_) + held_each(substitute_plans_) + held(substitute_split_) +
+         held(pair_to_) + held(intraday_streams_) + held(substitution_streams_) +
+         held(choice_streams_) + held(intraday_u_) + held(choice_u_) + held(substitution_u_) +
+         held(acceptors_) + held(others_) + held(bargain_) + held(lanes_);
 }
 
 void StoreRun::run_days(int begin, int end) {

@@ -75,8 +75,12 @@ class StoreRun {
   /// After the day has run hourly: an item's units sold in each opening hour under one policy
   /// (`out` has buckets() entries; they add up to the day's sales).
   void sales_by_hour(int policy, int item, std::span<int> out) const;
-  /// Bytes of state per store-item and policy (shelf, pipeline, observation, tally, parts).
+  /// Bytes of state per store-item and policy, as this run holds them (shelf, pipeline,
+  /// observations, tallies, the detailed path's tiers and hour buckets, the forecaster's state).
   std::size_t bytes_per_item_and_policy() const;
+  /// Bytes of the state every policy of the store shares (calendar, random streams, the
+  /// detailed path's split plans and uniforms), as this run holds them.
+  std::size_t bytes_shared() const;
 
  private:
   struct Lane;

@@ -113,8 +113,8 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
   std::size_t budget = std::size_t{256} << 20;
   if (phased) {
     const StoreRun probe(setup, 0, 0);
-    per_task +=
-        (probe.bytes_per_item_and_policy() * policies.size() + 256) * static_cast<size_t>(items);
+    per_task += probe.bytes_per_item_and_policy() * policies.size() * static_cast<size_t>(items) +
+                probe.bytes_shared();
     budget = std::size_t{1} << 30;
   }
   const int batch = static_cast<int>(std::clamp<std::size_t>(

@@ -41,7 +41,8 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   e.seconds = per_store * tasks / std::min<double>(workers, tasks);
 
   const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
-                               (pilot.bytes_per_item_and_policy() + sizeof(Tally));
+                                   (pilot.bytes_per_item_and_policy() + sizeof(Tally)) +
+                               pilot.bytes_shared();
   const std::size_t model =
       static_cast<size_t>(stores) * static_cast<size_t>(items) * demand.bytes_per_store_item();
   // Results: the totals and the breakdown rows of every policy and replication.
