@@ -12,7 +12,7 @@ test:
 bench:
 	cmake --preset release && cmake --build --preset release -j $(JOBS) && ./build/larder bench
 
-# AddressSanitizer + UBSan build of everything, then the whole suite.
+# AddressSanitizer + UBSan build of everything (clang, -O1), then the whole suite.
 debug-test:
 	bash .ci/install-deps
 	cmake --preset debug

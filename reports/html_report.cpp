@@ -185,6 +185,11 @@ std::string comparison_section(const RunResult& r) {
   for (int p = 0; p < static_cast<int>(r.policies.size()); ++p) {
     if (p != r.baseline) content += difference_table(r, p, metrics);
   }
+  if (r.policies.size() > 2) {
+    content += html_paragraph(
+        "These differences are against the baseline. pairs.csv beside this page compares every "
+        "pair of policies the same way.");
+  }
   content += html_details(
       "Every metric of the run",
       estimates_table(r, r.metrics, fmt::format("All metrics ({})", kEstimateCaption)), false);

@@ -190,6 +190,12 @@ TEST_CASE("report.html shows summary.json's paired differences and verdicts", "[
                                  "better: lower waste_units (significant)"});
   CHECK_THAT(html, Catch::Contains("<td class=\"better\">better: lower waste_units (significant)"));
   CHECK_THAT(html, Catch::Contains("<td class=\"worse\">worse: lower fill_rate (significant)"));
+  // Three policies: the page points to the table of every pair; with two it would not.
+  CHECK_THAT(html, Catch::Contains("pairs.csv beside this page compares every pair"));
+  RunResult two = r;
+  two.policies.resize(2);
+  two.values.resize(2);
+  CHECK_THAT(html_report(two, sample_context()), !Catch::Contains("pairs.csv"));
 }
 
 TEST_CASE("report.html breakdown tables hold breakdown.csv's numbers", "[html]") {
