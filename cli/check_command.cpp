@@ -19,8 +19,8 @@ std::string policy_text(const PolicySpec& p) {
   return s;
 }
 
-/// The `drill:` section in words, for the trainer checking an exercise (events included: the
-/// trainee never runs check on the file they play).
+/// The `drill:` section in words, for the trainer checking an exercise: hidden events are
+/// shown too (README, "Training drills").
 std::string drill_text(const Scenario& sc, const DrillSpec& d) {
   std::string items;
   for (int i : d.items) items += fmt::format("{}{}", items.empty() ? "" : ", ", sc.items[i].id);

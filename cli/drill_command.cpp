@@ -81,7 +81,7 @@ bool play_at_prompt(DrillGame& game, DrillDecisions& decided, const fs::path& cs
         std::cout << '\n';
         return false;
       }
-      if (!interactive) std::cout << line << '\n';  // a transcript reads like the terminal
+      if (!interactive) std::cout << line << '\n';  // captured output reads like the terminal
       const OrderLine o = parse_order_line(line, names, previous);
       if (o.kind == OrderLine::Kind::help) {
         std::cout << drill_help_text(s);
