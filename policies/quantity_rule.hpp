@@ -22,6 +22,9 @@ struct OrderInput {
   int on_order =
       0;  ///< units ordered earlier, arriving before the arrival day and still sellable on it
   int sold_today = 0;  ///< today's full-price sales (0 on closed days)
+  /// Units on their discounted extra day tomorrow (next-day discount): shown beside tomorrow's
+  /// full-price stock, they take some of its customers.
+  int discounted = 0;
   /// Units on hand after tonight's ageing by remaining life: stock_by_age[a] can be sold from
   /// tomorrow on for a + 1 more days (size = the item's shelf life; the last slot is empty).
   std::span<const std::int32_t> stock_by_age;

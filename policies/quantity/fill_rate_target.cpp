@@ -1,7 +1,10 @@
 // `fill_rate_target`: order up to the smallest stock Q whose expected fill rate (type 2 or
 // beta service) E[min(D, Q)] / E[D] is at least `level`, with D the forecast demand of the
 // days the delivery serves (the engine's window: the arrival day with daily deliveries) under
-// the family of `assume`; the order is Q minus usable stock and units on order, never below 0. The
+// the family of `assume`, over the protection period (protection_period.hpp: the days until the
+// delivery arrives too, and the arrival day netted of a discounted tier's sales); the order
+// lifts the perishable inventory position to Q (with lead time 1 and daily deliveries: Q minus
+// usable stock and units on order, never below 0). The
 // fill rate of one period is 1 - E[(D - Q)+] / E[D]; for normal demand 1 - sd * L(z) / mean with
 // the unit normal loss L (Silver, Pyke and Thomas 2017, P2 service; Nahmias, Production and
 // Operations Analysis; checks.md 1.2 and 2).
@@ -54,21 +57,34 @@ int fill_rate_quantity(const CountLaw& law, double level) {
 
 namespace {
 
-class FillRateRule : public OrderRule, public QuantityMethod {
+class FillRateRule : public OrderRule {
  public:
-  FillRateRule(std::vector<double> level, std::vector<DemandFamily> family)
-      : level_(std::move(level)), family_(std::move(family)) {}
-  void decide(const OrderContext&, std::span<const OrderInput> in, std::span<int> out) override {
+  FillRateRule(const std::vector<double>& level, const std::vector<DemandFamily>& family,
+               const Scenario& scenario)
+      : level_(&level), family_(&family), period_(scenario) {}
+  void decide(const OrderContext& ctx, std::span<const OrderInput> in,
+              std::span<int> out) override {
+    period_.prepare(ctx, in, 1);
     for (size_t i = 0; i < in.size(); ++i) {
-      const DemandForecast& f = in[i].forecast;
+      const DemandForecast f = period_.demand(i);
       const double mean = std::max(f.mean, 0.0);
-      const CountLaw law = CountLaw::from_moments(family_[i], mean, f.variance);
-      out[i] =
-          std::max(0, fill_rate_quantity(law, level_[i]) - in[i].usable_stock - in[i].on_order);
+      const CountLaw law = CountLaw::from_moments((*family_)[i], mean, f.variance);
+      out[i] = period_.order_to(i, fill_rate_quantity(law, (*level_)[i]));
     }
   }
-  std::unique_ptr<OrderRule> make(const StoreView&) const override {
-    return std::make_unique<FillRateRule>(level_, family_);
+
+ private:
+  const std::vector<double>* level_;
+  const std::vector<DemandFamily>* family_;
+  ProtectionPeriod period_;
+};
+
+class FillRateMethod : public QuantityMethod {
+ public:
+  FillRateMethod(std::vector<double> level, std::vector<DemandFamily> family)
+      : level_(std::move(level)), family_(std::move(family)) {}
+  std::unique_ptr<OrderRule> make(const StoreView& view) const override {
+    return std::make_unique<FillRateRule>(level_, family_, view.scenario);
   }
 
  private:
@@ -86,7 +102,7 @@ void register_fill_rate_target(PolicyRegistry& r) {
                       auto level = read_item_values(ctx, "level", {0.0, 1.0, true, true}, true);
                       auto family = read_assume(ctx);
                       if (!level) return nullptr;
-                      return std::make_unique<FillRateRule>(std::move(*level), std::move(family));
+                      return std::make_unique<FillRateMethod>(std::move(*level), std::move(family));
                     }});
 }
 

@@ -44,8 +44,8 @@ int forecast_quantile(const DemandForecast& f, DemandFamily family, double p) {
 }
 
 FractileRule::FractileRule(std::vector<double> probability, std::vector<DemandFamily> family,
-                           int extra)
-    : family_(std::move(family)), extra_(extra) {
+                           int extra, const Scenario& scenario)
+    : family_(std::move(family)), extra_(extra), period_(scenario) {
   set_probability(probability);
 }
 
@@ -55,17 +55,24 @@ void FractileRule::set_probability(std::span<const double> probability) {
   for (double p : probability_) z_.push_back(p > 0.0 && p < 1.0 ? normal_quantile(p) : 0.0);
 }
 
-void FractileRule::decide(const OrderContext&, std::span<const OrderInput> in, std::span<int> out) {
+void FractileRule::decide(const OrderContext& ctx, std::span<const OrderInput> in,
+                          std::span<int> out) {
+  period_.prepare(ctx, in, 1);
   for (size_t i = 0; i < in.size(); ++i) {
     const double p = probability_[i];
-    int target = 0;
-    if (p > 0.0) {
-      target =
-          (family_[i] == DemandFamily::normal ? normal_count_quantile(in[i].forecast, z_[i])
-                                              : forecast_quantile(in[i].forecast, family_[i], p)) +
-          extra_;
+    if (period_.plain(i)) {
+      // The daily fast path: the quantile target minus usable stock and units on order.
+      int target = 0;
+      if (p > 0.0) {
+        target =
+            (family_[i] == DemandFamily::normal ? normal_count_quantile(in[i].forecast, z_[i])
+                                                : forecast_quantile(in[i].forecast, family_[i], p)) +
+            extra_;
+      }
+      out[i] = std::max(0, target - in[i].usable_stock - in[i].on_order);
+      continue;
     }
-    out[i] = std::max(0, target - in[i].usable_stock - in[i].on_order);
+    out[i] = period_.quantile_order(i, family_[i], p, extra_);
   }
 }
 

@@ -19,8 +19,9 @@ namespace {
 /// in_stock_target with levels the runner sets.
 class NetworkInStockRule : public FractileRule {
  public:
-  NetworkInStockRule(std::vector<double> level, std::vector<DemandFamily> family)
-      : FractileRule(std::move(level), std::move(family), 1) {}
+  NetworkInStockRule(std::vector<double> level, std::vector<DemandFamily> family,
+                     const Scenario& scenario)
+      : FractileRule(std::move(level), std::move(family), 1, scenario) {}
   void set_levels(std::span<const double> level) override { set_probability(level); }
 };
 
@@ -31,7 +32,7 @@ class NetworkInStock : public QuantityMethod {
     // Until the first plan, every item at the target itself.
     return std::make_unique<NetworkInStockRule>(
         std::vector<double>(static_cast<size_t>(store.item_count()), target_.target),
-        target_.family);
+        target_.family, store.scenario);
   }
   const NetworkTarget* network() const override { return &target_; }
 

@@ -27,9 +27,6 @@
 
 #include "policies/quantity/order_up_to.hpp"
 
-#include <algorithm>
-#include <cmath>
-#include <numeric>
 #include <vector>
 
 #include "policies/quantity/fractile_rule.hpp"
@@ -37,39 +34,6 @@
 #include "policies/registry.hpp"
 
 namespace larder {
-
-double expected_outdating(std::span<const std::int32_t> stock_by_age,
-                          std::span<const std::int32_t> arrivals, int life,
-                          std::span<const double> withdrawals, double fifo_share) {
-  const size_t m = static_cast<size_t>(std::max(life, 1));
-  std::vector<double> s(m, 0.0);  // s[k]: units that leave at the close of today + k
-  for (size_t k = 0; k < stock_by_age.size() && k < m; ++k) s[k] = stock_by_age[k];
-  const size_t n = withdrawals.size();
-  double outdated = 0.0;
-  for (size_t d = 0; d < n; ++d) {
-    if (d < arrivals.size()) s[m - 1] += arrivals[d];
-    const double total = std::accumulate(s.begin(), s.end(), 0.0);
-    const double sold = std::clamp(withdrawals[d], 0.0, total);
-    // The oldest-first share from the oldest end, the rest from the freshest end (sold <=
-    // stock, so both ends can always give what is asked).
-    double need = fifo_share * sold;
-    for (size_t k = 0; k < m && need > 0.0; ++k) {
-      const double t = std::min(need, s[k]);
-      s[k] -= t;
-      need -= t;
-    }
-    need = (1.0 - fifo_share) * sold;
-    for (size_t k = m; k-- > 0 && need > 0.0;) {
-      const double t = std::min(need, s[k]);
-      s[k] -= t;
-      need -= t;
-    }
-    if (d + 1 < n) outdated += s[0];
-    for (size_t k = 0; k + 1 < m; ++k) s[k] = s[k + 1];
-    s[m - 1] = 0.0;
-  }
-  return outdated;
-}
 
 namespace {
 
@@ -79,119 +43,24 @@ struct OrderUpToSetup {
   int review_days = 1;
 };
 
-/// The rule's state at one store: scratch buffers for the forecasts of the period.
+/// The rule's state at one store: the protection period's scratch.
 class OrderUpToRule : public OrderRule {
  public:
   OrderUpToRule(const OrderUpToSetup& setup, const StoreView& view)
-      : setup_(&setup), fifo_share_(view.scenario.fifo_share) {}
+      : setup_(&setup), period_(view.scenario) {}
 
   void decide(const OrderContext& ctx, std::span<const OrderInput> in,
               std::span<int> out) override {
-    const Scenario& sc = ctx.store.scenario;
-    const int lead = std::max(ctx.arrival_day - ctx.order_day, 1);
-    const size_t items = in.size();
-    // Days order_day + 1 ... order_day + days, cut at the end of the horizon.
-    const int horizon_left = sc.horizon.days - 1 - ctx.order_day;
-    const auto period_days = [&](size_t i) {
-      return std::max(std::min(lead - 1 + serves(in[i], sc.items[i]), horizon_left), lead);
-    };
-    int period = lead;
-    for (size_t i = 0; i < items; ++i) period = std::max(period, period_days(i));
-    fill_forecasts(ctx, in, period);
-    for (size_t i = 0; i < items; ++i) {
-      const OrderInput& x = in[i];
-      const int life = sc.items[i].shelf_life_days;
-      const int days = period_days(i);
-      const int window = std::max(x.cover_days, 1);  // the engine's forecast window
-      // Demand of the period: the lead-time days, the engine's window (x.forecast), and the
-      // days after it that the order must still cover.
-      DemandForecast sum = x.forecast;
-      withdrawals_.assign(static_cast<size_t>(days), 0.0);
-      for (int d = 0; d < days; ++d) {
-        const DemandForecast& f = forecasts_[static_cast<size_t>(d) * items + i];
-        withdrawals_[static_cast<size_t>(d)] = std::max(f.mean, 0.0);
-        if (d >= lead - 1 && d < lead - 1 + window) continue;
-        sum.mean += std::max(f.mean, 0.0);
-        sum.variance += std::max(f.variance, 0.0);
-      }
-      sum.mean = std::max(sum.mean, 0.0);
-      const int target = forecast_quantile(sum, setup_->family[i], setup_->level[i]);
-      // Stock by age and arrivals; without an age profile, usable stock counts as fresh and
-      // units on order as arriving tomorrow.
-      stock_.assign(x.stock_by_age.begin(), x.stock_by_age.end());
-      if (stock_.empty()) {
-        stock_.assign(static_cast<size_t>(life), 0);
-        stock_.back() = x.usable_stock;
-      }
-      arrivals_.assign(static_cast<size_t>(days), 0);
-      if (x.pipeline.empty()) {
-        arrivals_[0] = x.on_order;
-      } else {
-        for (size_t d = 0; d < x.pipeline.size() && d < arrivals_.size(); ++d) {
-          arrivals_[d] = x.pipeline[d];
-        }
-      }
-      const long position = std::accumulate(stock_.begin(), stock_.end(), 0L) +
-                            std::accumulate(arrivals_.begin(), arrivals_.end(), 0L);
-      const long base = static_cast<long>(target) - position;
-      const size_t arrival = static_cast<size_t>(lead - 1);
-      const std::int32_t scheduled = arrivals_[arrival];
-      long q = std::max(0L, base);
-      for (int round = 0; round < 20; ++round) {
-        arrivals_[arrival] = static_cast<std::int32_t>(scheduled + q);
-        const double o = expected_outdating(stock_, arrivals_, life, withdrawals_, fifo_share_);
-        const long next = std::max(0L, base + static_cast<long>(std::ceil(o - 1e-9)));
-        if (next == q) break;
-        q = next;
-      }
-      out[i] = static_cast<int>(std::min(q, 2000000000L));
+    period_.prepare(ctx, in, setup_->review_days);
+    for (size_t i = 0; i < in.size(); ++i) {
+      const int target = forecast_quantile(period_.demand(i), setup_->family[i], setup_->level[i]);
+      out[i] = period_.order_to(i, target);
     }
   }
 
  private:
-  /// Days the delivery serves: review_days, at least the engine's window (until the next
-  /// delivery), at most the shelf life.
-  int serves(const OrderInput& x, const Item& item) const {
-    return std::min(std::max(setup_->review_days, x.cover_days), item.shelf_life_days);
-  }
-
-  /// forecasts_[d * items + i]: item i's demand forecast for day order_day + 1 + d (0 on
-  /// closed days and outside the horizon). A one-day window on the arrival day is the engine's
-  /// forecast (after the censoring treatment's refinement); other days come from the
-  /// forecaster, or, without one, from the engine's window spread evenly over its days.
-  void fill_forecasts(const OrderContext& ctx, std::span<const OrderInput> in, int period) {
-    const Scenario& sc = ctx.store.scenario;
-    const size_t items = in.size();
-    forecasts_.assign(static_cast<size_t>(period) * items, DemandForecast{});
-    day_.resize(items);
-    for (int d = 0; d < period; ++d) {
-      const int day = ctx.order_day + 1 + d;
-      DemandForecast* row = &forecasts_[static_cast<size_t>(d) * items];
-      if (day < 0 || day >= sc.horizon.days || !sc.is_open(ctx.store.store, day)) continue;
-      if (ctx.forecaster != nullptr) {
-        ctx.forecaster->predict(day, day_);
-        std::copy(day_.begin(), day_.end(), row);
-      } else {
-        for (size_t i = 0; i < items; ++i) {
-          const double w = 1.0 / std::max(in[i].cover_days, 1);
-          row[i] = {in[i].forecast.mean * w, in[i].forecast.variance * w};
-        }
-      }
-      if (day == ctx.arrival_day) {
-        for (size_t i = 0; i < items; ++i) {
-          if (in[i].cover_days <= 1) row[i] = in[i].forecast;
-        }
-      }
-    }
-  }
-
   const OrderUpToSetup* setup_;
-  double fifo_share_;
-  std::vector<DemandForecast> forecasts_;
-  std::vector<DemandForecast> day_;
-  std::vector<double> withdrawals_;
-  std::vector<std::int32_t> stock_;
-  std::vector<std::int32_t> arrivals_;
+  ProtectionPeriod period_;
 };
 
 class OrderUpTo : public QuantityMethod {

@@ -132,7 +132,7 @@ TEST_CASE("order_up_to with shelf life 1 is the plain quantile rule (FractileRul
       qty_test::PartHarness h(perishable(
           1, 0.5, 1, fmt::format("{{ rule: order_up_to, review_days: 3, assume: {} }}", family)));
       const DemandFamily f = family_named(family);
-      FractileRule plain({0.8}, {f}, 0);
+      FractileRule plain({0.8}, {f}, 0, h.scenario());
       const std::vector<std::int32_t> empty_shelf = {0};
       const std::vector<std::int32_t> no_pipeline = {0};
       for (double mean : {0.0, 3.5, 20.0, 64.0}) {

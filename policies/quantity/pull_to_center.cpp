@@ -5,7 +5,9 @@
 // distribution: experimental evidence", Management Science 46(3); rule (i) of checks.md 7.2).
 // Subjects order too little of high-margin items and too much of low-margin ones; w = 0 is the
 // critical fractile, w = 1 orders the mean. The stock target is Q rounded to the nearest integer
-// (halves up); the order is the target minus usable stock and units on order, never below 0.
+// (halves up); Q* and the mean are those of the protection period and the order lifts the
+// perishable inventory position to the target (protection_period.hpp; with lead time 1 and
+// daily deliveries: the target minus usable stock and units on order, never below 0).
 
 #include "policies/quantity/pull_to_center.hpp"
 
@@ -26,27 +28,42 @@ double pull_to_center_target(double mean, double q_star, double w) {
 
 namespace {
 
-class PullToCenter : public OrderRule, public QuantityMethod {
+struct PullSetup {
+  std::vector<double> ratio;
+  std::vector<DemandFamily> family;
+  double w = 0.0;
+};
+
+class PullToCenterRule : public OrderRule {
  public:
-  PullToCenter(std::vector<double> ratio, std::vector<DemandFamily> family, double w)
-      : ratio_(std::move(ratio)), family_(std::move(family)), w_(w) {}
-  void decide(const OrderContext&, std::span<const OrderInput> in, std::span<int> out) override {
+  PullToCenterRule(const PullSetup& setup, const Scenario& scenario)
+      : setup_(&setup), period_(scenario) {}
+  void decide(const OrderContext& ctx, std::span<const OrderInput> in,
+              std::span<int> out) override {
+    period_.prepare(ctx, in, 1);
     for (size_t i = 0; i < in.size(); ++i) {
-      const DemandForecast& f = in[i].forecast;
-      const int q_star = ratio_[i] > 0.0 ? forecast_quantile(f, family_[i], ratio_[i]) : 0;
-      const double t = pull_to_center_target(std::max(f.mean, 0.0), q_star, w_);
-      const int target = static_cast<int>(std::min(std::floor(t + 0.5), 2e9));
-      out[i] = std::max(0, target - in[i].usable_stock - in[i].on_order);
+      const DemandForecast f = period_.demand(i);
+      const double ratio = setup_->ratio[i];
+      const int q_star = ratio > 0.0 ? forecast_quantile(f, setup_->family[i], ratio) : 0;
+      const double t = pull_to_center_target(std::max(f.mean, 0.0), q_star, setup_->w);
+      out[i] = period_.order_to(i, static_cast<long>(std::min(std::floor(t + 0.5), 2e9)));
     }
-  }
-  std::unique_ptr<OrderRule> make(const StoreView&) const override {
-    return std::make_unique<PullToCenter>(ratio_, family_, w_);
   }
 
  private:
-  std::vector<double> ratio_;
-  std::vector<DemandFamily> family_;
-  double w_;
+  const PullSetup* setup_;
+  ProtectionPeriod period_;
+};
+
+class PullToCenter : public QuantityMethod {
+ public:
+  explicit PullToCenter(PullSetup setup) : setup_(std::move(setup)) {}
+  std::unique_ptr<OrderRule> make(const StoreView& view) const override {
+    return std::make_unique<PullToCenterRule>(setup_, view.scenario);
+  }
+
+ private:
+  PullSetup setup_;
 };
 
 }  // namespace
@@ -60,7 +77,7 @@ void register_pull_to_center(PolicyRegistry& r) {
        [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
          const double w = ctx.params.number("w", 0.3, Range::probability());
          auto ratio = read_critical_ratios(ctx);
-         return std::make_unique<PullToCenter>(std::move(ratio), read_assume(ctx), w);
+         return std::make_unique<PullToCenter>(PullSetup{std::move(ratio), read_assume(ctx), w});
        }});
 }
 

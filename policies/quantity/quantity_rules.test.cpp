@@ -106,14 +106,15 @@ TEST_CASE("forecast_quantile is the smallest Q with P(D <= Q) >= p (Boost, integ
 TEST_CASE("FractileRule orders the quantile plus extra, less usable stock and units on order",
           "[policies][quantity]") {
   // in_stock_target = quantile + 1; Poisson(20) at 0.70 -> 22 + 1 = 23 (checks.md 1.4 table).
-  FractileRule in_stock({0.70, 0.70}, {DemandFamily::poisson, DemandFamily::normal}, 1);
+  Scenario sc;
+  sc.items.resize(2);
+  FractileRule in_stock({0.70, 0.70}, {DemandFamily::poisson, DemandFamily::normal}, 1, sc);
   std::vector<OrderInput> in(2);
   in[0].forecast = {20.0, 20.0};
   in[1].forecast = {100.0, 900.0};
   in[1].usable_stock = 30;
   in[1].on_order = 10;
   std::vector<int> out(2);
-  const Scenario sc;
   const DemandModel truth(sc);
   const StoreView view{sc, truth, 0};
   const OrderContext ctx{view, 0, 1};

@@ -795,6 +795,7 @@ void StoreRun::place_orders(Lane& lane, int day) {
     in.pipeline = {view, ulead};
     in.stock_by_age = lane.shelf.by_age(i);
     in.sold_today = lane.observed[ii].sold;
+    in.discounted = lane.next_day.empty() ? 0 : lane.next_day[ii];
   }
   const OrderContext ctx{view_, day, arrival, lane.forecaster.get()};
   lane.rule->decide(ctx, lane.inputs, lane.orders);
