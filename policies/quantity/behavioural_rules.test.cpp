@@ -88,23 +88,24 @@ Item item(double price, double cost) {
 
 TEST_CASE("leftover_aversion ratio is cu / (cu + co + cost) (Ho, Lim and Cui; checks.md 7.2)",
           "[policies][quantity]") {
+  const Scenario plain;  // shelf life 1, lead time 1: the one-day newsvendor
   // cu = 2, co = 1 (checks.md 1.4): no psychological cost gives the critical ratio 2/3.
-  CHECK(leftover_aversion_ratio(item(3, 1), 0.0, 0.0, 0.0, 0.5) ==
-        Approx(critical_ratio(item(3, 1), 0.0, 0.5)).epsilon(1e-15));
-  CHECK(leftover_aversion_ratio(item(3, 1), 0.0, 1.0, 0.0, 0.5) ==
+  CHECK(leftover_aversion_ratio(plain, item(3, 1), 0.0, 0.0, 0.0) ==
+        Approx(critical_ratio(plain, item(3, 1), 0.0)).epsilon(1e-15));
+  CHECK(leftover_aversion_ratio(plain, item(3, 1), 0.0, 1.0, 0.0) ==
         Approx(2.0 / 4.0).epsilon(1e-15));
-  CHECK(leftover_aversion_ratio(item(3, 1), 0.0, 3.0, 0.0, 0.5) ==
+  CHECK(leftover_aversion_ratio(plain, item(3, 1), 0.0, 3.0, 0.0) ==
         Approx(2.0 / 6.0).epsilon(1e-15));
   // With a stockout cost delta_u as well: (cu + du) / (cu + co + du + do).
-  CHECK(leftover_aversion_ratio(item(3, 1), 0.0, 1.0, 0.5, 0.5) ==
+  CHECK(leftover_aversion_ratio(plain, item(3, 1), 0.0, 1.0, 0.5) ==
         Approx(2.5 / 4.5).epsilon(1e-15));
   // The penalty g raises cu: (2 + 1) / (2 + 1 + 1 + 1).
-  CHECK(leftover_aversion_ratio(item(3, 1), 1.0, 1.0, 0.0, 0.5) ==
+  CHECK(leftover_aversion_ratio(plain, item(3, 1), 1.0, 1.0, 0.0) ==
         Approx(3.0 / 5.0).epsilon(1e-15));
   // The ratio falls as the cost rises.
   double last = 1.0;
   for (double cost : {0.0, 0.5, 1.0, 2.0, 5.0}) {
-    const double r = leftover_aversion_ratio(item(3, 1), 0.0, cost, 0.0, 0.5);
+    const double r = leftover_aversion_ratio(plain, item(3, 1), 0.0, cost, 0.0);
     CHECK(r < last);
     last = r;
   }

@@ -61,8 +61,11 @@ bool ItemChain::fits(const ChainSpec& spec) {
   double states = std::pow(spec.cap + 1.0, dims);
   // The day's table holds every morning: the evening's parts times the arrival.
   double mornings = std::pow(spec.cap + 1.0, spec.life + (spec.discount_tier ? 1 : 0));
+  // The day's table costs about mornings * demand counts * picking splits to build.
+  const double work = mornings * static_cast<double>(spec.demand_pmf.size()) *
+                      (spec.fifo_share > 0.0 && spec.fifo_share < 1.0 ? spec.cap / 2.0 : 1.0);
   return spec.life >= 1 && spec.lead >= 1 && spec.cap >= 1 && states <= kMaxChainStates &&
-         mornings <= 4.0 * kMaxChainStates;
+         mornings <= kMaxChainStates && work <= 2e7;
 }
 
 ItemChain::ItemChain(ChainSpec spec) : spec_(std::move(spec)) {

@@ -39,10 +39,12 @@ struct ChainSpec {
   double discount_price = 0.0;
   double take_rate = 0.0;  ///< share of customers who take a discounted unit when one is shown
   int cap = 0;             ///< largest order, and largest count per state slot
+
+  bool operator==(const ChainSpec&) const = default;
 };
 
 /// The largest state space the chain is built for.
-inline constexpr std::int64_t kMaxChainStates = 40000;
+inline constexpr std::int64_t kMaxChainStates = 20000;
 
 /// State: stock slots a = 0..life-2 (units sellable for a + 1 more days from tomorrow), then the
 /// discounted units shown tomorrow (with a discounted tier), then units arriving on days

@@ -21,9 +21,9 @@
 
 namespace larder {
 
-double leftover_aversion_ratio(const Item& item, double penalty, double leftover_cost,
-                               double stockout_cost, double discount_take_rate) {
-  const double s = leftover_recovery(item, discount_take_rate);
+double leftover_aversion_ratio(const Scenario& scenario, const Item& item, double penalty,
+                               double leftover_cost, double stockout_cost) {
+  const double s = leftover_recovery(scenario, item, penalty);
   const double under = item.price - item.unit_cost + penalty + stockout_cost;
   const double over = item.unit_cost - s + leftover_cost;
   if (under <= 0.0) return 0.0;
@@ -47,9 +47,9 @@ void register_leftover_aversion(PolicyRegistry& r) {
          std::vector<double> ratio;
          for (size_t i = 0; i < ctx.scenario.items.size(); ++i) {
            const Item& item = ctx.scenario.items[i];
-           const double cr = leftover_aversion_ratio(item, penalty.value_or(item.stockout_penalty),
-                                                     (*cost)[i], stockout ? (*stockout)[i] : 0.0,
-                                                     ctx.scenario.discount_take_rate);
+           const double cr =
+               leftover_aversion_ratio(ctx.scenario, item, penalty.value_or(item.stockout_penalty),
+                                       (*cost)[i], stockout ? (*stockout)[i] : 0.0);
            if (cr >= 1.0) {
              ctx.params.error("cost",
                               fmt::format("{}: item '{}' has a ratio of 1 (its leftovers cost "

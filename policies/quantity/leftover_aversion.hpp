@@ -10,7 +10,7 @@ namespace larder {
 /// co = c - s (s = leftover_recovery, critical_fractile.hpp; g = penalty): the
 /// newsvendor ratio when each leftover unit costs leftover_cost more and each unit short
 /// stockout_cost more. 0 when there is nothing to gain, at most 1.
-double leftover_aversion_ratio(const Item& item, double penalty, double leftover_cost,
-                               double stockout_cost, double discount_take_rate);
+double leftover_aversion_ratio(const Scenario& scenario, const Item& item, double penalty,
+                               double leftover_cost, double stockout_cost);
 
 }  // namespace larder

@@ -76,8 +76,9 @@ void register_pull_to_center(PolicyRegistry& r) {
        "assume: family)",
        [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
          const double w = ctx.params.number("w", 0.3, Range::probability());
-         auto ratio = read_critical_ratios(ctx);
-         return std::make_unique<PullToCenter>(PullSetup{std::move(ratio), read_assume(ctx), w});
+         auto family = read_assume(ctx);
+         auto ratio = read_critical_ratios(ctx, family);
+         return std::make_unique<PullToCenter>(PullSetup{std::move(ratio), std::move(family), w});
        }});
 }
 

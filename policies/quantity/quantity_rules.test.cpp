@@ -32,30 +32,40 @@ Item item(double price, double cost, Leftovers leftovers = Leftovers::discard,
 
 TEST_CASE("critical ratio (p - c + g) / (p - s + g) on the worked examples of checks.md 1",
           "[policies][quantity]") {
+  const Scenario plain;  // shelf life 1, lead time 1: the one-day newsvendor
   // Example A: p=3, c=1, s=0, g=0 -> 2/3. Variant A': s=0.5, g=0.5 -> 5/6.
-  CHECK(critical_ratio(item(3, 1), 0.0, 0.5) == Approx(2.0 / 3.0).epsilon(1e-15));
-  CHECK(critical_ratio(item(3, 1, Leftovers::salvage, 0.5), 0.5, 0.5) ==
+  CHECK(critical_ratio(plain, item(3, 1), 0.0) == Approx(2.0 / 3.0).epsilon(1e-15));
+  CHECK(critical_ratio(plain, item(3, 1, Leftovers::salvage, 0.5), 0.5) ==
         Approx(5.0 / 6.0).epsilon(1e-15));
   // Example B: p=5, c=2, s=0.5, g=1 -> 8/11 = 0.7272727273.
-  CHECK(critical_ratio(item(5, 2, Leftovers::salvage, 0.5), 1.0, 0.5) ==
+  CHECK(critical_ratio(plain, item(5, 2, Leftovers::salvage, 0.5), 1.0) ==
         Approx(0.7272727273).epsilon(1e-10));
   // Salvage value counts only when leftovers are salvaged; donation recovers nothing.
-  CHECK(critical_ratio(item(3, 1, Leftovers::donate, 0.5), 0.0, 0.5) ==
+  CHECK(critical_ratio(plain, item(3, 1, Leftovers::donate, 0.5), 0.0) ==
         Approx(2.0 / 3.0).epsilon(1e-15));
   // No margin and no penalty: nothing to gain by stocking.
-  CHECK(critical_ratio(item(1, 1), 0.0, 0.5) == 0.0);
+  CHECK(critical_ratio(plain, item(1, 1), 0.0) == 0.0);
 }
 
-TEST_CASE("a next-day discount recovers its price times the take rate", "[policies][quantity]") {
-  // By hand: p=3, c=1, next-day price 1.2, take rate 0.5 -> s = 0.6, ratio 2 / 2.4 = 5/6.
-  // With a salvage fallback (value 0.2) the other half brings 0.2: s = 0.7, ratio 2 / 2.3.
+TEST_CASE("a next-day discount recovers its price less the full-price sales it takes",
+          "[policies][quantity]") {
+  // model.md, step 3: a discounted unit sells at price q to the share `take` of customers, and
+  // about a share r (the ratio itself: the chance the full-price tier still had a unit) of
+  // those would have bought at full price p. So s = take * (q - p * r) + (1 - take) * fallback
+  // and r = (p - c) / (p - s), a fixed point. By hand, p = 3, c = 1, q = 1.2, take = 0.5,
+  // fallback discarded: r = 2 / (2.4 + 1.5 r), 1.5 r^2 + 2.4 r - 2 = 0, r = (-2.4 + sqrt(17.76))
+  // / 3 = 0.604766..., s = 0.6 - 1.5 r = -0.30715: the discount costs more than it brings.
+  Scenario sc;
+  sc.discount_take_rate = 0.5;
   Item it = item(3, 1, Leftovers::discount_next_day, 0.2);
   it.next_day = NextDayDiscount{1.2, Leftovers::discard, 0.0};
-  CHECK(leftover_recovery(it, 0.5) == Approx(0.6).epsilon(1e-15));
-  CHECK(critical_ratio(it, 0.0, 0.5) == Approx(5.0 / 6.0).epsilon(1e-15));
+  const double r = (-2.4 + std::sqrt(17.76)) / 3.0;
+  CHECK(critical_ratio(sc, it, 0.0) == Approx(r).epsilon(1e-9));
+  CHECK(leftover_recovery(sc, it, 0.0) == Approx(0.6 - 1.5 * r).epsilon(1e-9));
+  // Nobody takes a discounted unit: the units go to the fallback (salvage 0.2): s = 0.2.
+  sc.discount_take_rate = 0.0;
   it.next_day->fallback = Leftovers::salvage;
-  CHECK(critical_ratio(it, 0.0, 0.5) == Approx(2.0 / 2.3).epsilon(1e-15));
-  CHECK(critical_ratio(it, 0.0, 0.0) == Approx(2.0 / 2.8).epsilon(1e-15));
+  CHECK(critical_ratio(sc, it, 0.0) == Approx(2.0 / 2.8).epsilon(1e-9));
 }
 
 TEST_CASE("forecast_quantile is the smallest Q with P(D <= Q) >= p (Boost, integer_round_up)",

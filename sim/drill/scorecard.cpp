@@ -98,7 +98,7 @@ Scorecard score_drill(DrillGame& game, const DrillDecisions& decided, std::strin
   for (size_t k = 0; k < sp.items.size(); ++k) {
     const int item = sp.items[k];
     const Item& it = s.items[static_cast<size_t>(item)];
-    const double cr = critical_ratio(it, it.stockout_penalty, s.discount_take_rate);
+    const double cr = critical_ratio(s, it, it.stockout_penalty);
     const auto& days = out.items[k];
     Series one;
     // Chasing is read in units of the item's mean demand over the drill, so items pool.
