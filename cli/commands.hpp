@@ -81,6 +81,9 @@ struct FitArgs {
   int min_days = 28;            ///< fewer days that did not sell out: the item is left out
   std::string name;             ///< scenario name ["fitted-<history file stem>"]
   bool substitution = false;    ///< also estimate substitute shares (needs hourly sales)
+  bool check = false;           ///< replay the history's deliveries on the fitted scenario
+  int check_replications = 200;  ///< replications of the check
+  int threads = 0;               ///< for the check (0 = all)
   bool quiet = false;
 };
 int fit_command(const FitArgs& args);
