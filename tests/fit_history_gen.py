@@ -16,9 +16,9 @@ code):
   latent lag-7 correlation of the same store-item);
 - each customer arrives at a time drawn from the item's hourly profile (uniform within the
   hour); customers are served in time order while units last; a rye customer who finds rye out
-  takes spelt with probability --share-rye (0.4), a spelt customer who finds spelt out takes
-  rye with probability --share-spelt (0.3), when that item is still in stock; otherwise the
-  customer leaves;
+  takes spelt with probability --share-rye (0.4), a bun customer who finds bun out takes spelt
+  with probability --share-bun (0.3), when spelt is still in stock; otherwise the customer
+  leaves (one level: spelt's customers have no substitute);
 - shelf life one day (leftovers are thrown away at close), so the morning's stock is the
   delivery: round(1.2 x the sales of the same weekday a week earlier) + 1, and round(mean) in
   the first week. Items sell out on a large share of days and stock follows last week's sales,
@@ -61,13 +61,13 @@ def main():
     ap.add_argument("--days", type=int, default=364)
     ap.add_argument("--lag7", type=float, default=0.0)
     ap.add_argument("--share-rye", type=float, default=0.4)
-    ap.add_argument("--share-spelt", type=float, default=0.3)
+    ap.add_argument("--share-bun", type=float, default=0.3)
     ap.add_argument("--out", required=True)
     ap.add_argument("--items-out", required=True)
     a = ap.parse_args()
     rng = np.random.default_rng(a.seed)
     names = list(ITEMS)
-    share = {"rye": ("spelt", a.share_rye), "spelt": ("rye", a.share_spelt)}
+    share = {"rye": ("spelt", a.share_rye), "bun": ("spelt", a.share_bun)}
     profile = {k: np.array(v["profile"], float) / sum(v["profile"]) for k, v in ITEMS.items()}
     # Latent Gaussian variables per store, item and day.
     z = rng.standard_normal((len(STORES), len(names), a.days))

@@ -284,10 +284,13 @@ SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options,
   out.substitutes_from.assign(data.rows.size(), -1);
   for (const Target& t : targets) {
     for (const TargetRow& tr : t.rows) {
+      // The first source sell-out before this item's own (its later sales hold substitutes).
+      const FitDay& own = data.rows[tr.row];
+      const int own_out = own.sold_out ? own.sold_out_minute : 24 * 60;
       std::int16_t first = -1;
       for (const Source& s : tr.sources) {
         const std::int16_t m = data.rows[s.row_out].sold_out_minute;
-        if (first < 0 || m < first) first = m;
+        if (m < own_out && (first < 0 || m < first)) first = m;
       }
       out.substitutes_from[tr.row] = first;
     }
