@@ -43,8 +43,7 @@ void print_table(const FitResult& r) {
   size_t w = 4;
   for (const auto& e : r.fit.items) w = std::max(w, e.id.size());
   fmt::print("  {:<{}}  {:<17} {:>9} {:>8} {:>9} {:>8} {:>6} {:>15} {:>7} {:>14}\n", "item", w,
-             "family", "base", "se", "on sales", "sold out", "cv", "cv 95%", "days",
-             "lag-7 95%");
+             "family", "base", "se", "on sales", "sold out", "cv", "cv 95%", "days", "lag-7 95%");
   for (const auto& e : r.fit.items) {
     if (!e.fitted) {
       fmt::print("  {:<{}}  {}\n", e.id, w, e.problem);
@@ -57,8 +56,9 @@ void print_table(const FitResult& r) {
       interval = fmt::format("{}{:.3g}-{}", spread ? "" : "nb ", e.cv_low,
                              std::isfinite(e.cv_high) ? fmt::format("{:.3g}", e.cv_high) : "inf");
     const PersistenceFit& p = r.persistence[static_cast<size_t>(&e - r.fit.items.data())];
-    const std::string lag7 =
-        std::isnan(p.correlation) ? std::string("-") : fmt::format("{:.2f} to {:.2f}", p.low, p.high);
+    const std::string lag7 = std::isnan(p.correlation)
+                                 ? std::string("-")
+                                 : fmt::format("{:.2f} to {:.2f}", p.low, p.high);
     fmt::print("  {:<{}}  {:<17} {:>9.4g} {:>8} {:>9.4g} {:>7.1f}% {:>6} {:>15} {:>7} {:>14}{}\n",
                e.id, w, to_string(e.family), e.base, se_cell(e.base_se), e.naive_base, censored,
                spread ? fmt::format("{:.3g}", e.cv) : std::string("-"), interval, e.days, lag7,
@@ -99,18 +99,18 @@ std::string check_table(const std::vector<ItemCheck>& checks, int replications) 
       "check: the history's own deliveries replayed on the fitted scenario, {} replications; "
       "history against the fitted scenario's 95% range\n",
       replications);
-  t += fmt::format("  {:<{}}  {:>9} {:>9}  {:<15} {:>9} {:>9}  {:<15}\n", "item", w,
-                   "sales/day", "history", "fitted 95%", "sold out", "history", "fitted 95%");
+  t += fmt::format("  {:<{}}  {:>9} {:>9}  {:<15} {:>9} {:>9}  {:<15}\n", "item", w, "sales/day",
+                   "history", "fitted 95%", "sold out", "history", "fitted 95%");
   int outside = 0;
   for (const ItemCheck& c : checks) {
     outside += (c.sales.inside() ? 0 : 1) + (c.sold_out.inside() ? 0 : 1);
-    t += fmt::format("  {:<{}}  {:>9} {:>9.3f}  {:<15} {:>9} {:>8.1f}%  {:<15}\n", c.item, w, "",
-                     c.sales.history,
-                     fmt::format("{:.3f}-{:.3f}{}", c.sales.low, c.sales.high,
-                                 c.sales.inside() ? "" : " OUT"),
-                     "", 100 * c.sold_out.history,
-                     fmt::format("{:.1f}-{:.1f}%{}", 100 * c.sold_out.low, 100 * c.sold_out.high,
-                                 c.sold_out.inside() ? "" : " OUT"));
+    t += fmt::format(
+        "  {:<{}}  {:>9} {:>9.3f}  {:<15} {:>9} {:>8.1f}%  {:<15}\n", c.item, w, "",
+        c.sales.history,
+        fmt::format("{:.3f}-{:.3f}{}", c.sales.low, c.sales.high, c.sales.inside() ? "" : " OUT"),
+        "", 100 * c.sold_out.history,
+        fmt::format("{:.1f}-{:.1f}%{}", 100 * c.sold_out.low, 100 * c.sold_out.high,
+                    c.sold_out.inside() ? "" : " OUT"));
   }
   t += outside == 0
            ? "  every item's sales and sell-out share fall within the fitted scenario's range\n"

@@ -138,8 +138,8 @@ void fit_sizes(const std::vector<ItemWork>& items, std::vector<double>& size,
     const double z = std::exp(a);
     double nll = 0.0;
     for (const Term& t : terms[s])
-      nll -= total_log_likelihood(kFamilies[t.family], z * t.mean, t.cv, t.extra, t.sold,
-                                  t.censored);
+      nll -=
+          total_log_likelihood(kFamilies[t.family], z * t.mean, t.cv, t.extra, t.sold, t.censored);
     return nll;
   };
   Eigen::VectorXd a0(stores);

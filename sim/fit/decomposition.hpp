@@ -14,10 +14,9 @@
 #include <array>
 #include <limits>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
-
-#include <span>
 
 #include "sim/fit/series.hpp"
 #include "sim/fit/total_demand.hpp"
@@ -54,9 +53,9 @@ struct ItemEstimate {
   double cv_high = std::numeric_limits<double>::quiet_NaN();
   bool cv_low_at_poisson = false;
   DemandFamily cv_interval_family = DemandFamily::negative_binomial;
-  int days = 0;                  ///< store-item-days used
-  int censored_days = 0;         ///< of which sold out
-  double naive_base = 0.0;       ///< the same decomposition's base from mean sales (biased low)
+  int days = 0;             ///< store-item-days used
+  int censored_days = 0;    ///< of which sold out
+  double naive_base = 0.0;  ///< the same decomposition's base from mean sales (biased low)
   double neg_log_likelihood = 0.0;
   std::array<double, 3> aic{};  ///< per family (index = DemandFamily), NaN when not fitted
   bool converged = false;

@@ -36,8 +36,8 @@ Eigen::MatrixXd dense_hessian(const DenseValue& f, const Eigen::VectorXd& x, dou
   for (Eigen::Index i = 0; i < n; ++i) {
     H(i, i) = (at(i, h, i, 0) - 2 * f0 + at(i, -h, i, 0)) / (h * h);
     for (Eigen::Index j = 0; j < i; ++j) {
-      H(i, j) = H(j, i) = (at(i, h, j, h) - at(i, h, j, -h) - at(i, -h, j, h) + at(i, -h, j, -h)) /
-                          (4 * h * h);
+      H(i, j) = H(j, i) =
+          (at(i, h, j, h) - at(i, h, j, -h) - at(i, -h, j, h) + at(i, -h, j, -h)) / (4 * h * h);
     }
   }
   return H;

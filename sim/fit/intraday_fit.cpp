@@ -48,8 +48,8 @@ std::pair<double, double> mixed_exposure(const std::vector<ExposureDay>& days, d
       }
       const double r = m / excess;
       const double beta = r / m;
-      nll -= r * std::log(beta) - (d.sold + r) * std::log(d.g + beta) +
-             log_gamma(d.sold + r) - log_gamma(r);
+      nll -= r * std::log(beta) - (d.sold + r) * std::log(d.g + beta) + log_gamma(d.sold + r) -
+             log_gamma(r);
     }
     return nll;
   };

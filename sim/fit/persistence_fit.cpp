@@ -33,8 +33,8 @@ struct Pair {
 double pairs_nll(const std::vector<Pair>& pairs, double rho) {
   double nll = 0.0;
   for (const Pair& p : pairs) {
-    const double pr = bivariate_normal_rectangle(p.earlier.lo, p.earlier.hi, p.later.lo,
-                                                 p.later.hi, rho);
+    const double pr =
+        bivariate_normal_rectangle(p.earlier.lo, p.earlier.hi, p.later.lo, p.later.hi, rho);
     nll -= std::log(std::max(pr, 1e-300));
   }
   return nll;

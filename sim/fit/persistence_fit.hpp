@@ -25,8 +25,8 @@ namespace larder {
 struct PersistenceFit {
   int lag = 7;
   int pairs = 0;
-  double correlation = 0.0;  ///< NaN with fewer than 30 pairs
-  double se = 0.0;           ///< from the observed information
+  double correlation = 0.0;      ///< NaN with fewer than 30 pairs
+  double se = 0.0;               ///< from the observed information
   double low = 0.0, high = 0.0;  ///< 95% profile-likelihood interval
   /// Whether the interval leaves out 0: persistence that can be told from none.
   bool distinguishable() const { return low > 0.0 || high < 0.0; }

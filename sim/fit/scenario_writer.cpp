@@ -147,9 +147,9 @@ void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i
       written += fmt::format("{}{}: {}", written.empty() ? "" : ", ", r.data.items[x.substitute],
                              num(std::min(x.share, 1.0) * scale));
     }
-    y += fmt::format("    # substitution when out (joint censored likelihood): {}\n",
-                     all.empty() ? std::string("too few days on which this item sold out first")
-                                 : all);
+    y += fmt::format(
+        "    # substitution when out (joint censored likelihood): {}\n",
+        all.empty() ? std::string("too few days on which this item sold out first") : all);
     if (!written.empty()) y += fmt::format("    substitutes: {{ {} }}\n", written);
   }
 }
@@ -172,7 +172,8 @@ FitResult fit_history(FitData data, const FitOptions& options) {
     r.substitutes_from = std::move(s.substitutes_from);
     r.substitution_rounds = s.rounds;
     r.substitution_converged = s.converged || s.rounds == 0;
-    for (int i = 0; i < n; ++i) r.intraday[static_cast<size_t>(i)] = fit_intraday(r.data, r.fit, i, r.substitutes_from);
+    for (int i = 0; i < n; ++i)
+      r.intraday[static_cast<size_t>(i)] = fit_intraday(r.data, r.fit, i, r.substitutes_from);
   }
   for (int i = 0; i < n; ++i) {
     r.persistence.push_back(fit_persistence(r.data, r.fit, i, 7, r.extra));
@@ -185,8 +186,8 @@ std::string replay_orders_csv(const FitResult& r) {
   std::string out = "store,item,day,quantity\n";
   for (const FitDay& d : r.data.rows) {
     if (d.delivered <= 0 || !r.fit.items[d.item].fitted || !r.fit.stores[d.store].fitted) continue;
-    out += fmt::format("{},{},{},{}\n", r.data.stores[d.store],
-                       r.data.items[d.item], d.day - 1, d.delivered);
+    out += fmt::format("{},{},{},{}\n", r.data.stores[d.store], r.data.items[d.item], d.day - 1,
+                       d.delivered);
   }
   return out;
 }

@@ -20,8 +20,8 @@ namespace larder {
 struct FitResult {
   FitData data;
   Decomposition fit;
-  std::vector<IntradayFit> intraday;        ///< per item
-  std::vector<PersistenceFit> persistence;  ///< per item, lag 7
+  std::vector<IntradayFit> intraday;             ///< per item
+  std::vector<PersistenceFit> persistence;       ///< per item, lag 7
   std::vector<PersistenceFit> persistence_lag1;  ///< per item, lag 1
   bool substitution_asked = false;
   std::vector<SubstituteShare> substitution;  ///< with FitOptions::substitution

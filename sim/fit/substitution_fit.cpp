@@ -19,7 +19,7 @@ constexpr double kTolerance = 1e-3;  // in share: a small part of any share's st
 /// One source of substitute demand on a row of the substitute: the row of the item that was
 /// out and the share of its day's demand still to come at its sell-out, G(tau).
 struct Source {
-  int slot = 0;      ///< index into the target's list of sources
+  int slot = 0;  ///< index into the target's list of sources
   size_t row_out = 0;
   double arrived = 0.0;  ///< G(tau)
   double mean = 0.0;     ///< E[L] at the current fit
@@ -34,10 +34,10 @@ struct TargetRow {
 
 struct Target {
   int item = 0;
-  std::vector<int> sources;       ///< source items (slot -> item), pairs with enough days
-  std::vector<int> store_days;    ///< per slot
-  std::vector<TargetRow> rows;    ///< rows with at least one source
-  Eigen::VectorXd alpha;          ///< per slot
+  std::vector<int> sources;     ///< source items (slot -> item), pairs with enough days
+  std::vector<int> store_days;  ///< per slot
+  std::vector<TargetRow> rows;  ///< rows with at least one source
+  Eigen::VectorXd alpha;        ///< per slot
 };
 
 /// E[L] and the extra variance of L for a source row under the fitted law of its item.
@@ -167,8 +167,7 @@ std::vector<Target> build_targets(const FitData& data, const Decomposition& fit,
 
 /// Every row of the target in a fitted store and not excluded, with its sources if any.
 std::vector<std::pair<size_t, const TargetRow*>> all_rows(const FitData& data,
-                                                          const Decomposition& fit,
-                                                          const Target& t,
+                                                          const Decomposition& fit, const Target& t,
                                                           const std::vector<char>& excluded) {
   std::vector<std::pair<size_t, const TargetRow*>> rows;
   size_t next = 0;
@@ -224,7 +223,8 @@ Eigen::VectorXd share_se(const FitData& data, const Decomposition& fit, const Ta
   const Eigen::Index n = K + (spread ? 1 : 0) + S;
   Eigen::VectorXd theta(n);
   for (int w = 0; w < 7; ++w)
-    if (block[static_cast<size_t>(w)] >= 0) theta[block[static_cast<size_t>(w)]] = std::log(e.base * e.weekday[w]);
+    if (block[static_cast<size_t>(w)] >= 0)
+      theta[block[static_cast<size_t>(w)]] = std::log(e.base * e.weekday[w]);
   if (spread) theta[K] = std::log(e.cv);
   theta.tail(S) = t.alpha;
   const auto rows = all_rows(data, fit, t, excluded);
@@ -265,9 +265,8 @@ Eigen::VectorXd share_se(const FitData& data, const Decomposition& fit, const Ta
 
 }  // namespace
 
-SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options,
-                                 Decomposition& fit, const std::vector<IntradayFit>& intraday,
-                                 int min_store_days) {
+SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options, Decomposition& fit,
+                                 const std::vector<IntradayFit>& intraday, int min_store_days) {
   SubstitutionFit out;
   if (data.columns.hours == 0 || !data.columns.has_sold_out_time) return out;
   std::vector<char> excluded(data.rows.size(), 0);

@@ -15,8 +15,9 @@
 // (1 - G)(r + x) / (r / mean + G) (mean (1 - G) for Poisson), and the variance adds
 // (1 - G)^2 (r + x) / (r / mean + G)^2. i's day is scored by the censored likelihood of own +
 // substitute demand (`total_demand.hpp`): a day that sold out as demand >= sales, the others
-// as demand = sales. (When i sold out first, its lost customers may have gone to j, so j's x
-// holds some of i's customers and E[L] reads a little high: a small bias of mutual pairs.)
+// as demand = sales. Known bias: when customers of i go to j, j's sell-outs are partly caused
+// by i's busy days, so the reverse share alpha_ji reads high (about up to 2 standard errors for
+// a true 0 in tests/fit_independent.test.cpp); mutual pairs are not estimated reliably.
 //
 // The shares and the decomposition are fitted by alternation until the shares move less than
 // 1e-3 (at most 10 rounds): the shares of each substitute by Newton's method together with
@@ -60,8 +61,7 @@ struct SubstitutionFit {
 /// Fits the shares of every ordered pair of fitted items with at least `min_store_days`
 /// store-days of opportunity, refitting `fit` (the decomposition) with each row's substitute
 /// demand; `intraday` gives each item's profile. Empty without hourly sales and sell-out times.
-SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options,
-                                 Decomposition& fit, const std::vector<IntradayFit>& intraday,
-                                 int min_store_days = 10);
+SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options, Decomposition& fit,
+                                 const std::vector<IntradayFit>& intraday, int min_store_days = 10);
 
 }  // namespace larder

@@ -11,8 +11,8 @@
 #include <unordered_map>
 
 #include "policies/policy.hpp"
-#include "sim/scenario/iso_date.hpp"
 #include "sim/runner/record_history.hpp"
+#include "sim/scenario/iso_date.hpp"
 #include "sim/scenario/load_scenario.hpp"
 
 namespace larder {
@@ -45,8 +45,9 @@ void summarise(CheckStatistic& s) {
 class ScratchFolder {
  public:
   ScratchFolder() {
-    path_ = std::filesystem::temp_directory_path() /
-            fmt::format("larder-fit-check-{}-{}", ::getpid(), reinterpret_cast<std::uintptr_t>(this));
+    path_ =
+        std::filesystem::temp_directory_path() /
+        fmt::format("larder-fit-check-{}-{}", ::getpid(), reinterpret_cast<std::uintptr_t>(this));
     std::filesystem::create_directories(path_);
   }
   ~ScratchFolder() {

@@ -1,7 +1,8 @@
 #pragma once
-// `larder fit --check` (the table is printed by cli/fit_command.cpp): the fitted scenario replays the history's own deliveries over many
-// replications, and each item's sales per store-day and share of sold-out days in the history
-// are set against the range the fitted scenario gives them (README, "Fitting a history").
+// `larder fit --check` (the table is printed by cli/fit_command.cpp): the fitted scenario replays
+// the history's own deliveries over many replications, and each item's sales per store-day and
+// share of sold-out days in the history are set against the range the fitted scenario gives them
+// (README, "Fitting a history").
 
 #include <string>
 #include <vector>

@@ -1,7 +1,7 @@
 #include "sim/stats/bivariate_normal.hpp"
 
-#include <boost/math/special_functions/owens_t.hpp>
 #include <algorithm>
+#include <boost/math/special_functions/owens_t.hpp>
 #include <cmath>
 
 #include "sim/stats/normal.hpp"
