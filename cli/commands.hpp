@@ -74,13 +74,16 @@ int history_command(const HistoryArgs& args);
 
 /// `larder fit HISTORY.csv --out SCENARIO.yaml`: demand estimated from a censored history.
 struct FitArgs {
-  std::string history;          ///< the history CSV
-  std::string items;            ///< item file with prices and costs ("" = placeholders)
-  std::string out;              ///< scenario file to write
-  std::string family = "auto";  ///< auto | poisson | negative_binomial | normal
-  int min_days = 28;            ///< fewer days that did not sell out: the item is left out
-  std::string name;             ///< scenario name ["fitted-<history file stem>"]
-  bool substitution = false;    ///< also estimate substitute shares (needs hourly sales)
+  std::string history;           ///< the history CSV
+  std::string items;             ///< item file with prices and costs ("" = placeholders)
+  std::string out;               ///< scenario file to write
+  std::string family = "auto";   ///< auto | poisson | negative_binomial | normal
+  int min_days = 28;             ///< fewer days that did not sell out: the item is left out
+  std::string name;              ///< scenario name ["fitted-<history file stem>"]
+  bool substitution = false;     ///< also estimate substitute shares (needs hourly sales)
+  bool check = false;            ///< replay the history's deliveries on the fitted scenario
+  int check_replications = 200;  ///< replications of the check
+  int threads = 0;               ///< for the check (0 = all)
   bool quiet = false;
 };
 int fit_command(const FitArgs& args);

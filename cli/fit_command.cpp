@@ -13,6 +13,7 @@
 #include "reports/atomic_file.hpp"
 #include "sim/fit/scenario_writer.hpp"
 #include "sim/history/history_reader.hpp"
+#include "sim/runner/fit_check.hpp"
 #include "sim/scenario/ids.hpp"
 
 namespace larder {
@@ -41,8 +42,8 @@ void print_table(const FitResult& r) {
              d.days, d.rows.size());
   size_t w = 4;
   for (const auto& e : r.fit.items) w = std::max(w, e.id.size());
-  fmt::print("  {:<{}}  {:<17} {:>9} {:>8} {:>9} {:>8} {:>6} {:>6} {:>7}\n", "item", w, "family",
-             "base", "se", "on sales", "sold out", "cv", "se", "days");
+  fmt::print("  {:<{}}  {:<17} {:>9} {:>8} {:>9} {:>8} {:>6} {:>15} {:>7} {:>14}\n", "item", w,
+             "family", "base", "se", "on sales", "sold out", "cv", "cv 95%", "days", "lag-7 95%");
   for (const auto& e : r.fit.items) {
     if (!e.fitted) {
       fmt::print("  {:<{}}  {}\n", e.id, w, e.problem);
@@ -50,10 +51,17 @@ void print_table(const FitResult& r) {
     }
     const double censored = 100.0 * e.censored_days / std::max(e.days, 1);
     const bool spread = e.family != DemandFamily::poisson;
-    fmt::print("  {:<{}}  {:<17} {:>9.4g} {:>8} {:>9.4g} {:>7.1f}% {:>6} {:>6} {:>7}{}\n", e.id, w,
-               to_string(e.family), e.base, se_cell(e.base_se), e.naive_base, censored,
-               spread ? fmt::format("{:.3g}", e.cv) : std::string("-"),
-               spread ? se_cell(e.cv_se) : std::string("-"), e.days,
+    std::string interval = "-";
+    if (!std::isnan(e.cv_low))
+      interval = fmt::format("{}{:.3g}-{}", spread ? "" : "nb ", e.cv_low,
+                             std::isfinite(e.cv_high) ? fmt::format("{:.3g}", e.cv_high) : "inf");
+    const PersistenceFit& p = r.persistence[static_cast<size_t>(&e - r.fit.items.data())];
+    const std::string lag7 = std::isnan(p.correlation)
+                                 ? std::string("-")
+                                 : fmt::format("{:.2f} to {:.2f}", p.low, p.high);
+    fmt::print("  {:<{}}  {:<17} {:>9.4g} {:>8} {:>9.4g} {:>7.1f}% {:>6} {:>15} {:>7} {:>14}{}\n",
+               e.id, w, to_string(e.family), e.base, se_cell(e.base_se), e.naive_base, censored,
+               spread ? fmt::format("{:.3g}", e.cv) : std::string("-"), interval, e.days, lag7,
                e.converged ? "" : "  (search did not converge)");
   }
   std::string stores;
@@ -66,15 +74,51 @@ void print_table(const FitResult& r) {
   if (r.substitution_asked) {
     if (r.substitution.empty())
       fmt::print(
-          "  substitution: not estimated (needs sales_HH and sold_out_time columns and hours "
-          "with one item out)\n");
+          "  substitution: not estimated (needs sales_HH and sold_out_time columns and at least "
+          "10 store-days on which an item sold out while another was in stock)\n");
     for (const SubstituteShare& x : r.substitution)
       fmt::print("  substitution: {} out -> {} {:.3f} (se {:.3f}, {} store-days)\n",
                  d.items[x.out_item], d.items[x.substitute], x.share, x.se, x.store_days);
+    if (!r.substitution_converged)
+      fmt::print("  substitution: warning: the shares still moved after {} rounds\n",
+                 r.substitution_rounds);
   }
   fmt::print(
       "  base: censored-likelihood estimate at a size-1 store; on sales: the same from sales\n"
-      "  taken as demand (biased low when items sell out)\n");
+      "  taken as demand (biased low when items sell out); cv 95%: profile-likelihood interval\n"
+      "  (0 = the Poisson limit; \"nb\": the negative binomial's, for an item fitted as poisson);\n"
+      "  lag-7 95%: the correlation with the same weekday a week earlier (censored pairwise\n"
+      "  likelihood; an interval holding 0 cannot be told from no persistence)\n");
+}
+
+/// The --check table: each item's history against the fitted scenario's 95% range.
+std::string check_table(const std::vector<ItemCheck>& checks, int replications) {
+  size_t w = 4;
+  for (const ItemCheck& c : checks) w = std::max(w, c.item.size());
+  std::string t = fmt::format(
+      "check: the history's own deliveries replayed on the fitted scenario, {} replications; "
+      "history against the fitted scenario's 95% range\n",
+      replications);
+  t += fmt::format("  {:<{}}  {:>9} {:>9}  {:<15} {:>9} {:>9}  {:<15}\n", "item", w, "sales/day",
+                   "history", "fitted 95%", "sold out", "history", "fitted 95%");
+  int outside = 0;
+  for (const ItemCheck& c : checks) {
+    outside += (c.sales.inside() ? 0 : 1) + (c.sold_out.inside() ? 0 : 1);
+    t += fmt::format(
+        "  {:<{}}  {:>9} {:>9.3f}  {:<15} {:>9} {:>8.1f}%  {:<15}\n", c.item, w, "",
+        c.sales.history,
+        fmt::format("{:.3f}-{:.3f}{}", c.sales.low, c.sales.high, c.sales.inside() ? "" : " OUT"),
+        "", 100 * c.sold_out.history,
+        fmt::format("{:.1f}-{:.1f}%{}", 100 * c.sold_out.low, 100 * c.sold_out.high,
+                    c.sold_out.inside() ? "" : " OUT"));
+  }
+  t += outside == 0
+           ? "  every item's sales and sell-out share fall within the fitted scenario's range\n"
+           : fmt::format(
+                 "  {} value(s) OUT of range: the fitted scenario does not reproduce what was "
+                 "recorded there (about 1 in 20 falls outside by chance)\n",
+                 outside);
+  return t;
 }
 
 }  // namespace
@@ -128,6 +172,11 @@ int fit_command(const FitArgs& args) {
   }
   print_table(result);
   fmt::print("wrote {}\n", args.out);
+  if (args.check) {
+    const std::vector<ItemCheck> checks =
+        check_fit(result, w, args.check_replications, args.threads);
+    fmt::print("{}", check_table(checks, args.check_replications));
+  }
   return 0;
 }
 

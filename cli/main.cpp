@@ -231,9 +231,19 @@ int main(int argc, char** argv) {
       ->check(CLI::Range(1, 100000));
   fit_cmd->add_option("--name", fit.name, "scenario name [fitted-<history file name>]");
   fit_cmd->add_flag("--substitution", fit.substitution,
-                    "also estimate substitute shares between the items from the extra sales an "
-                    "item gets in the hours another is sold out (stockout-state pooling; needs "
-                    "sales_HH and sold_out_time columns)");
+                    "also estimate substitute shares between the items jointly with each item's "
+                    "own demand (censored likelihood of own plus substitute demand on the days "
+                    "another item sold out; needs sales_HH and sold_out_time columns)");
+  fit_cmd->add_flag("--check", fit.check,
+                    "then replay the history's own deliveries on the fitted scenario and print "
+                    "each item's sales and sell-out share in the history against the fitted "
+                    "scenario's 95% range");
+  fit_cmd
+      ->add_option("--check-replications", fit.check_replications,
+                   "replications of the --check replay [200]")
+      ->check(CLI::Range(2, 100000));
+  fit_cmd->add_option("-t,--threads", fit.threads, "worker threads for --check [all cores]")
+      ->check(CLI::Range(0, 4096));
   fit_cmd->add_flag("-q,--quiet", fit.quiet, "no warnings on stderr");
   fit_cmd->footer(
       "Model: mean(store, item, day) = base(item) x size(store) x weekday(item, day), fitted by\n"
@@ -243,16 +253,21 @@ int main(int argc, char** argv) {
       "so base is the mean demand per open day at a size-1 store. The family (poisson,\n"
       "negative_binomial or normal, spread by cv) is the one with the smallest AIC. With hourly\n"
       "sales (sales_HH) the intraday profile comes from days that did not sell out; with\n"
-      "sell-out times the base is also estimated by the exposure MLE, as a check. Each item's\n"
-      "comment block in the scenario gives standard errors, the share of sold-out days, what\n"
-      "sales-as-demand would give and the lag-7 residual correlation. Items and stores with\n"
+      "sell-out times the base is also estimated by the exposure MLE, as a check (Poisson or,\n"
+      "for spread items, gamma-mixed Poisson arrivals within the day). Each item's comment\n"
+      "block in the scenario gives standard errors, the cv's 95% profile-likelihood interval\n"
+      "(0 at the Poisson limit), the share of sold-out days, what sales-as-demand would give\n"
+      "and the lag-7 and lag-1 correlations with 95% intervals (censored pairwise likelihood;\n"
+      "reported, not written as demand_shocks). Items and stores with\n"
       "fewer than --min-days days that did not sell out (or fewer than 3 on a weekday) are\n"
       "listed and left out. The table on stdout shows the same per item. Without --items,\n"
       "prices and costs are written as placeholders marked # PLACEHOLDER, with a warning.\n"
-      "--substitution groups the opening hours of each store-day by which item was out\n"
-      "(Karabati, Tan and Ozturk 2009) and writes item j's share for item i as i's extra sales\n"
-      "in hours when only j was out, over j's expected demand in those hours (shares above\n"
-      "twice their standard error).\n\n"
+      "--substitution fits item j's share for item i jointly with i's own demand: on a day\n"
+      "j sold out while i was in stock, i's demand is its own plus the share of j's demand\n"
+      "expected after j's sell-out (shares above twice their standard error are written).\n"
+      "--check then replays the history's deliveries on the fitted scenario (--check-\n"
+      "replications times) and prints each item's sales per day and sell-out share in the\n"
+      "history against the fitted scenario's 95% range.\n\n"
       "Examples:\n"
       "  larder history my.yaml --policy habit --out history.csv --items-out items.csv\n"
       "  larder fit history.csv --items items.csv --out fitted.yaml\n"

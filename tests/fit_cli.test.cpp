@@ -89,6 +89,15 @@ TEST_CASE("larder fit: history, fit, check", "[fit]") {
       larder(fmt::format("fit {} --family poisson --out {} -q", hist.string(), fitted.string()));
   CHECK(n.code == 0);
   CHECK_THAT(slurp(fitted), !Catch::Contains("distribution: normal"));
+
+  // --check: the history's deliveries replayed on the fitted scenario, a row per item.
+  Outcome k = larder(fmt::format("fit {} --items {} --check --check-replications 20 -t 1 --out {}",
+                                 hist.string(), items.string(), fitted.string()));
+  INFO(k.err << k.out);
+  CHECK(k.code == 0);
+  CHECK_THAT(k.out, Catch::Contains("the history's own deliveries replayed") &&
+                        Catch::Contains("fitted 95%") && Catch::Contains("20 replications"));
+  CHECK_THAT(slurp(fitted), !Catch::Contains("replay"));  // the written scenario is the usual one
 }
 
 TEST_CASE("larder fit: bad input exits 2 with file:line messages", "[fit]") {

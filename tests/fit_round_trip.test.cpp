@@ -159,14 +159,14 @@ policies:
     quantity: { rule: fixed, quantity: { rye: 21, spelt: 200, wheat: 200 } }
 )";
 
-TEST_CASE("substitute shares come back by stockout-state pooling", "[fit]") {
+TEST_CASE("substitute shares come back by the joint censored likelihood", "[fit]") {
   const Scenario truth = test::scenario_from(kSubstitution);
   FitData data = recorded_history(truth);
   REQUIRE(data.columns.hours > 0);
   FitOptions options;
   options.substitution = true;
   const FitResult r = fit_history(std::move(data), options);
-  // Only rye is ever out, so only the pairs (rye, spelt) and (rye, wheat) have hours.
+  // Only rye is ever out, so only the pairs (rye, spelt) and (rye, wheat) have store-days.
   REQUIRE(r.substitution.size() == 2);
   for (const SubstituteShare& x : r.substitution) {
     const std::string& sub = r.data.items[x.substitute];
@@ -175,6 +175,12 @@ TEST_CASE("substitute shares come back by stockout-state pooling", "[fit]") {
     const double truth_share = sub == "spelt" ? 0.4 : 0.2;
     CHECK(std::abs(x.share - truth_share) < 4 * x.se);
     CHECK(x.se < 0.05);  // precise enough to tell the two shares apart
+  }
+  // The substitutes' bases are their own demand (30 and 12), not what they sold.
+  for (const ItemEstimate& e : r.fit.items) {
+    INFO(e.id << " base " << e.base << " se " << e.base_se);
+    const double base = e.id == "rye" ? 25 : e.id == "spelt" ? 30 : 12;
+    CHECK(std::abs(e.base - base) < 4 * e.base_se);
   }
   WriteOptions w;
   w.name = "fitted";

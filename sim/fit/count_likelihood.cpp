@@ -34,9 +34,29 @@ double negative_binomial_term(double mean, double cv, int x, bool at_least) {
   const double p = r / (r + mean);
   const double k = static_cast<double>(x);
   // P(D <= k) = I_p(r, k + 1), so P(D >= x) = 1 - I_p(r, x).
-  if (at_least) return log_p(boost::math::ibetac(r, k, p));
-  return log_gamma(k + r) - log_gamma(r) - log_gamma(k + 1.0) + r * std::log(p) +
-         k * std::log1p(-p);
+  if (at_least) {
+    if (r > 1e4 && x <= 10000) {
+      // Near Poisson the incomplete beta at a huge first argument loses accuracy: sum the
+      // probabilities below x by the recursion P(j + 1) = P(j) (r + j) / (j + 1) (1 - p).
+      double term = std::exp(-r * std::log1p(mean / r)), below = 0.0;
+      for (int j = 0; j < x; ++j) {
+        below += term;
+        term *= (r + j) / (j + 1.0) * (mean / (r + mean));
+      }
+      if (1.0 - below > 1e-9) return std::log1p(-below);
+    }
+    return log_p(boost::math::ibetac(r, k, p));
+  }
+  // log Gamma(k + r) - log Gamma(r): as a sum of logs when r is large and k is not, where the
+  // difference of two huge log-gammas would cancel (a negative binomial near Poisson, e.g. a
+  // small substitute demand added to a Poisson item's).
+  double rising = 0.0;
+  if (r > 1e4 && x <= 10000) {
+    for (int j = 0; j < x; ++j) rising += std::log(r + j);
+  } else {
+    rising = log_gamma(k + r) - log_gamma(r);
+  }
+  return rising - log_gamma(k + 1.0) - r * std::log1p(mean / r) + k * std::log(mean / (r + mean));
 }
 
 double normal_term(double mean, double cv, int x, bool at_least) {

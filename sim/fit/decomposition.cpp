@@ -3,10 +3,12 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <functional>
 #include <limits>
 
 #include "sim/fit/block_newton.hpp"
 #include "sim/fit/count_likelihood.hpp"
+#include "sim/fit/total_demand.hpp"
 
 namespace larder {
 
@@ -20,6 +22,7 @@ struct Obs {
   std::int32_t store = 0;
   std::int32_t sold = 0;
   bool censored = false;
+  ExtraDemand extra;  ///< substitute demand on top of the item's own
 };
 
 /// One family's fit of one item: log weekday means (over the item's weekdays) and log cv.
@@ -44,7 +47,7 @@ double block_nll(DemandFamily f, const std::vector<Obs>& obs, const std::vector<
   const double cv = std::exp(c);
   double nll = 0.0;
   for (const Obs& o : obs)
-    nll -= count_log_likelihood(f, size[o.store] * m, cv, o.sold, o.censored);
+    nll -= total_log_likelihood(f, size[o.store] * m, cv, o.extra, o.sold, o.censored);
   return nll;
 }
 
@@ -94,6 +97,10 @@ void fit_item(ItemWork& w, const std::vector<double>& size, const FitOptions& op
   double best = std::numeric_limits<double>::infinity();
   for (int fi = 0; fi < 3; ++fi) {
     if (options.family && *options.family != kFamilies[fi]) continue;
+    const auto item = static_cast<size_t>(w.index);
+    if (item < options.item_family.size() && options.item_family[item] &&
+        *options.item_family[item] != kFamilies[fi])
+      continue;
     if (!all && fi != w.chosen) continue;
     fit_family(w, fi, size);
     const double params = static_cast<double>(w.weekdays.size()) + (fi == 0 ? 0.0 : 1.0);
@@ -113,6 +120,7 @@ void fit_sizes(const std::vector<ItemWork>& items, std::vector<double>& size,
     double cv = 0.0;
     std::int32_t sold = 0;
     bool censored = false;
+    ExtraDemand extra;
   };
   std::vector<std::vector<Term>> terms(static_cast<size_t>(stores));
   for (const ItemWork& w : items) {
@@ -120,7 +128,7 @@ void fit_sizes(const std::vector<ItemWork>& items, std::vector<double>& size,
     for (size_t k = 0; k < w.weekdays.size(); ++k) {
       const double m = std::exp(st.a[static_cast<Eigen::Index>(k)]);
       for (const Obs& o : w.by_weekday[k])
-        terms[o.store].push_back({w.chosen, m, std::exp(st.c), o.sold, o.censored});
+        terms[o.store].push_back({w.chosen, m, std::exp(st.c), o.sold, o.censored, o.extra});
     }
   }
   BlockProblem p;
@@ -130,7 +138,8 @@ void fit_sizes(const std::vector<ItemWork>& items, std::vector<double>& size,
     const double z = std::exp(a);
     double nll = 0.0;
     for (const Term& t : terms[s])
-      nll -= count_log_likelihood(kFamilies[t.family], z * t.mean, t.cv, t.sold, t.censored);
+      nll -=
+          total_log_likelihood(kFamilies[t.family], z * t.mean, t.cv, t.extra, t.sold, t.censored);
     return nll;
   };
   Eigen::VectorXd a0(stores);
@@ -145,6 +154,71 @@ void fit_sizes(const std::vector<ItemWork>& items, std::vector<double>& size,
   }
 }
 
+/// The profile negative log-likelihood of family `fi` at log cv `c`: the weekday means
+/// refitted with the cv held there.
+double profile_value(const ItemWork& w, int fi, const std::vector<double>& size, double c) {
+  const DemandFamily f = kFamilies[fi];
+  BlockProblem p;
+  p.blocks = static_cast<int>(w.weekdays.size());
+  p.value = [&](int k, double a, double) { return block_nll(f, w.by_weekday[k], size, a, c); };
+  return minimize_blocks(p, w.fits[fi].a, 0.0).value;
+}
+
+/// The root of g in [lo, hi] (g(lo) and g(hi) of opposite signs) by the Illinois variant of
+/// regula falsi (Dowell and Jarratt 1971), to 1e-4 in log cv or in g.
+double profile_root(const std::function<double(double)>& g, double lo, double glo, double hi,
+                    double ghi) {
+  int side = 0;
+  for (int it = 0; it < 40 && hi - lo > 1e-4; ++it) {
+    const double x = (lo * ghi - hi * glo) / (ghi - glo);
+    const double gx = g(x);
+    if (std::abs(gx) < 1e-4) return x;  // the drop is met to 1e-4 in log-likelihood
+    if ((gx > 0) == (ghi > 0)) {
+      hi = x, ghi = gx;
+      if (side == -1) glo /= 2;
+      side = -1;
+    } else {
+      lo = x, glo = gx;
+      if (side == 1) ghi /= 2;
+      side = 1;
+    }
+  }
+  return 0.5 * (lo + hi);
+}
+
+/// The 95% profile-likelihood interval of the cv (chi-square(1) 0.95 quantile 3.841459,
+/// from memory; half of it is the drop in log-likelihood).
+void cv_interval(const ItemWork& w, const std::vector<double>& size, ItemEstimate& e) {
+  int fi = w.chosen == 0 ? 1 : w.chosen;
+  if (!w.fits[fi].tried) return;
+  const FamilyState& st = w.fits[fi];
+  constexpr double kHalfChi2 = 3.841459 / 2.0;
+  const double best = st.minimum.value;
+  const auto g = [&](double c) {
+    const double v = profile_value(w, fi, size, c);
+    return (std::isfinite(v) ? v : std::numeric_limits<double>::max()) - best - kHalfChi2;
+  };
+  e.cv_interval_family = kFamilies[fi];
+  // Lower end: at cv 1e-4 the negative binomial is Poisson on every day (cv^2 mean <= 1).
+  const double c_min = kFamilies[fi] == DemandFamily::negative_binomial ? std::log(1e-4) : st.c - 8;
+  const double g_min = g(c_min);
+  const double g_hat = -kHalfChi2;
+  if (g_min <= 0) {
+    e.cv_low = 0.0;
+    e.cv_low_at_poisson = kFamilies[fi] == DemandFamily::negative_binomial;
+  } else {
+    e.cv_low = std::exp(profile_root(g, c_min, g_min, st.c, g_hat));
+  }
+  double hi = st.c;
+  double g_hi = g_hat;
+  for (double step = 0.125; step < 10 && g_hi <= 0; step *= 2) {
+    hi = st.c + step;
+    g_hi = g(hi);
+  }
+  e.cv_high = g_hi > 0 ? std::exp(profile_root(g, st.c, g_hat, hi, g_hi))
+                       : std::numeric_limits<double>::infinity();
+}
+
 }  // namespace
 
 double Decomposition::mean(int store, int item, int weekday) const {
@@ -154,7 +228,8 @@ double Decomposition::mean(int store, int item, int weekday) const {
   return i.base * s.size * i.weekday[weekday];
 }
 
-Decomposition fit_decomposition(const FitData& data, const FitOptions& options) {
+Decomposition fit_decomposition(const FitData& data, const FitOptions& options,
+                                std::span<const ExtraDemand> extra) {
   Decomposition out;
   const auto n_stores = data.stores.size();
   const auto n_items = data.items.size();
@@ -186,11 +261,14 @@ Decomposition fit_decomposition(const FitData& data, const FitOptions& options) 
   {
     std::vector<std::array<std::vector<Obs>, 7>> obs(n_items);
     std::vector<std::array<int, 7>> uncensored(n_items, std::array<int, 7>{});
-    for (const FitDay& d : data.rows) {
+    for (size_t r = 0; r < data.rows.size(); ++r) {
+      const FitDay& d = data.rows[r];
       if (!store_active[d.store]) continue;
       if (d.sold_out && d.sold == 0) continue;  // D >= 0 says nothing
+      const ExtraDemand e = extra.empty() ? ExtraDemand{} : extra[r];
+      if (std::isnan(e.mean)) continue;
       const int wd = data.weekday(d.day);
-      obs[d.item][wd].push_back({d.store, d.sold, d.sold_out});
+      obs[d.item][wd].push_back({d.store, d.sold, d.sold_out, e});
       if (!d.sold_out) uncensored[d.item][wd]++;
     }
     for (size_t i = 0; i < n_items; ++i) {
@@ -316,6 +394,7 @@ Decomposition fit_decomposition(const FitData& data, const FitOptions& options) 
       naive += s / static_cast<double>(w.by_weekday[k].size());
     }
     e.naive_base = naive / static_cast<double>(K);
+    if (options.intervals) cv_interval(w, size, e);
   }
   return out;
 }

@@ -45,6 +45,18 @@ std::string se_text(double se) {
   return std::isfinite(se) ? num(se) : std::string("not determined");
 }
 
+}  // namespace
+
+std::string cv_interval_text(const ItemEstimate& e) {
+  if (std::isnan(e.cv_low)) return fmt::format("se {}", se_text(e.cv_se));
+  const std::string hi = std::isfinite(e.cv_high) ? num(e.cv_high) : std::string("unbounded");
+  if (e.cv_low_at_poisson)
+    return fmt::format("95% profile interval 0 (the Poisson limit) to {}; no se at the limit", hi);
+  return fmt::format("se {}; 95% profile interval {} to {}", se_text(e.cv_se), num(e.cv_low), hi);
+}
+
+namespace {
+
 void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i) {
   const ItemEstimate& e = r.fit.items[i];
   const IntradayFit& in = r.intraday[i];
@@ -69,16 +81,26 @@ void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i
         fmt::format("{}{} {}", wse.empty() ? "" : ", ", kWeekdayNames[w], se_text(e.weekday_se[w]));
   }
   y += fmt::format("  #   weekday se: {}\n", wse);
-  if (e.family != DemandFamily::poisson)
-    y += fmt::format("  #   cv {} (se {})\n", num(e.cv), se_text(e.cv_se));
+  if (e.family != DemandFamily::poisson) {
+    y += fmt::format("  #   cv {} ({})\n", num(e.cv), cv_interval_text(e));
+  } else if (!std::isnan(e.cv_low)) {
+    y += fmt::format("  #   cv allowed by the {} fit: {}\n", to_string(e.cv_interval_family),
+                     cv_interval_text(e));
+  }
   if (in.exposure_base)
-    y += fmt::format("  #   base from sell-out times (exposure MLE, {} timed sell-outs): {}\n",
-                     in.timed_sellouts, num(*in.exposure_base));
-  if (p.pairs >= 3 && std::isfinite(p.correlation))
     y += fmt::format(
-        "  #   lag-7 residual correlation {:.3f} (se {:.3f}, {} pairs of days that did "
-        "not sell out; biased toward 0)\n",
-        p.correlation, p.se, p.pairs);
+        "  #   base from sell-out times (exposure MLE, {} arrivals within the day, {} timed "
+        "sell-outs): {} (se {})\n",
+        e.family == DemandFamily::poisson ? "Poisson" : "gamma-mixed Poisson", in.timed_sellouts,
+        num(*in.exposure_base), se_text(in.exposure_se));
+  for (const PersistenceFit* q : {&p, &r.persistence_lag1[static_cast<size_t>(i)]}) {
+    if (std::isnan(q->correlation)) continue;
+    y += fmt::format(
+        "  #   lag-{} correlation {:.3f} (95% interval {:.3f} to {:.3f}, {} pairs, censored "
+        "pairwise likelihood): {}\n",
+        q->lag, q->correlation, q->low, q->high, q->pairs,
+        q->distinguishable() ? "told from 0" : "not told from 0");
+  }
   if (!e.converged) y += "  #   warning: the likelihood search did not converge\n";
   y += fmt::format("  - id: {}\n", e.id);
   if (const ItemRecord* rec = find_item(o, e.id)) {
@@ -125,8 +147,9 @@ void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i
       written += fmt::format("{}{}: {}", written.empty() ? "" : ", ", r.data.items[x.substitute],
                              num(std::min(x.share, 1.0) * scale));
     }
-    y += fmt::format("    # substitution when out (stockout-state pooling): {}\n",
-                     all.empty() ? std::string("no hours with only this item out") : all);
+    y += fmt::format(
+        "    # substitution when out (joint censored likelihood): {}\n",
+        all.empty() ? std::string("too few days on which this item sold out first") : all);
     if (!written.empty()) y += fmt::format("    substitutes: {{ {} }}\n", written);
   }
 }
@@ -136,14 +159,37 @@ void write_item(std::string& y, const FitResult& r, const WriteOptions& o, int i
 FitResult fit_history(FitData data, const FitOptions& options) {
   FitResult r;
   r.data = std::move(data);
-  r.fit = fit_decomposition(r.data, options);
-  for (int i = 0; i < static_cast<int>(r.data.items.size()); ++i) {
-    r.intraday.push_back(fit_intraday(r.data, r.fit, i));
-    r.persistence.push_back(fit_lag7_persistence(r.data, r.fit, i));
-  }
+  FitOptions first = options;
+  first.intervals = options.intervals && !options.substitution;  // refitted with the shares
+  r.fit = fit_decomposition(r.data, first);
+  const int n = static_cast<int>(r.data.items.size());
+  for (int i = 0; i < n; ++i) r.intraday.push_back(fit_intraday(r.data, r.fit, i));
   r.substitution_asked = options.substitution;
-  if (options.substitution) r.substitution = fit_substitution(r.data, r.fit);
+  if (options.substitution) {
+    SubstitutionFit s = fit_substitution(r.data, options, r.fit, r.intraday);
+    r.substitution = std::move(s.shares);
+    r.extra = std::move(s.extra);
+    r.substitutes_from = std::move(s.substitutes_from);
+    r.substitution_rounds = s.rounds;
+    r.substitution_converged = s.converged || s.rounds == 0;
+    for (int i = 0; i < n; ++i)
+      r.intraday[static_cast<size_t>(i)] = fit_intraday(r.data, r.fit, i, r.substitutes_from);
+  }
+  for (int i = 0; i < n; ++i) {
+    r.persistence.push_back(fit_persistence(r.data, r.fit, i, 7, r.extra));
+    r.persistence_lag1.push_back(fit_persistence(r.data, r.fit, i, 1, r.extra));
+  }
   return r;
+}
+
+std::string replay_orders_csv(const FitResult& r) {
+  std::string out = "store,item,day,quantity\n";
+  for (const FitDay& d : r.data.rows) {
+    if (d.delivered <= 0 || !r.fit.items[d.item].fitted || !r.fit.stores[d.store].fitted) continue;
+    out += fmt::format("{},{},{},{}\n", r.data.stores[d.store], r.data.items[d.item], d.day - 1,
+                       d.delivered);
+  }
+  return out;
 }
 
 std::vector<std::string> items_without_prices(const FitResult& r, const WriteOptions& o) {
@@ -182,11 +228,18 @@ std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
   y += "format: 1\n";
   y += fmt::format("name: {}\n", o.name);
   y += "seed: 1\n";
-  y += fmt::format(
-      "horizon: {{ days: 364, warmup_days: 28, start_date: {} }}  # the year after "
-      "the history\n",
-      to_iso(add_days(last, 1)));
-  y += "replications: 100\n";
+  if (o.replay_orders.empty()) {
+    y += fmt::format(
+        "horizon: {{ days: 364, warmup_days: 28, start_date: {} }}  # the year after "
+        "the history\n",
+        to_iso(add_days(last, 1)));
+    y += "replications: 100\n";
+  } else {
+    y += fmt::format(
+        "horizon: {{ days: {}, warmup_days: 0, start_date: {} }}  # the history's own dates\n",
+        d.days, to_iso(d.first_date));
+    y += fmt::format("replications: {}\n", o.replications);
+  }
   if (d.columns.hours > 0) {
     y += fmt::format(
         "calendar:\n  hours: {{ open: {}, close: {} }}  # the history's hourly columns\n",
@@ -211,6 +264,15 @@ std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
       continue;
     }
     write_item(y, r, o, i);
+  }
+  if (!o.replay_orders.empty()) {
+    y += fmt::format(
+        "policies:\n"
+        "  - name: history-deliveries\n"
+        "    forecast: {{ method: ses_weekday }}\n"
+        "    quantity: {{ rule: replay, file: \"{}\" }}\n",
+        quoted(o.replay_orders));
+    return y;
   }
   y += "# Starting policies: the same forecast and rule, with and without the censoring "
        "correction.\n";

@@ -20,15 +20,23 @@ namespace larder {
 struct FitResult {
   FitData data;
   Decomposition fit;
-  std::vector<IntradayFit> intraday;        ///< per item
-  std::vector<PersistenceFit> persistence;  ///< per item
+  std::vector<IntradayFit> intraday;             ///< per item
+  std::vector<PersistenceFit> persistence;       ///< per item, lag 7
+  std::vector<PersistenceFit> persistence_lag1;  ///< per item, lag 1
   bool substitution_asked = false;
   std::vector<SubstituteShare> substitution;  ///< with FitOptions::substitution
+  std::vector<ExtraDemand> extra;  ///< per row: substitute demand at the shares (may be empty)
+  std::vector<std::int16_t> substitutes_from;  ///< per row (may be empty): `fit_intraday`
+  int substitution_rounds = 0;
+  bool substitution_converged = true;
 };
 
-/// Fits everything `larder fit` writes from a history. Substitute shares are written (under the
-/// item that was out) when they exceed twice their standard error, cut to [0, 1] and scaled
-/// down together when an item's shares sum above 1.
+/// Fits everything `larder fit` writes from a history: the decomposition, the intraday profiles,
+/// with FitOptions::substitution the shares jointly with the decomposition
+/// (`fit_substitution`), then the profiles and exposure estimates again without the substitute
+/// sales, and the lag-7 and lag-1 correlations. Substitute shares are written
+/// (under the item that was out) when they exceed twice their standard error, cut to [0, 1] and
+/// scaled down together when an item's shares sum above 1.
 FitResult fit_history(FitData data, const FitOptions& options);
 
 struct WriteOptions {
@@ -36,7 +44,20 @@ struct WriteOptions {
   std::string history_file;  ///< for the header comment
   std::string items_file;    ///< "" = none: prices and costs are marked placeholders
   std::vector<ItemRecord> items;
+  /// For `larder fit --check`: when set, the horizon is the history's own dates (no warm-up)
+  /// and the only policy is a `replay` of this order file (`replay_orders_csv`), run
+  /// `replications` times.
+  std::string replay_orders;
+  int replications = 100;
 };
+
+/// The history's deliveries as the order file of the `replay` quantity rule: one row per
+/// fitted store-item-day with a delivery, placed the day before (the scenario's default lead
+/// time of one day), days counted from the history's first date.
+std::string replay_orders_csv(const FitResult& r);
+
+/// The cv's standard error and 95% profile interval as the comment and table show them.
+std::string cv_interval_text(const ItemEstimate& e);
 
 /// Items of the history that the item file does not list (they get placeholders).
 std::vector<std::string> items_without_prices(const FitResult& r, const WriteOptions& options);

@@ -28,6 +28,7 @@ void SeriesBuilder::add(const HistoryRow& row) {
   p.day.item = index_of(data_.items, row.item);
   p.day.store = index_of(data_.stores, row.store);
   p.day.sold = row.sold;
+  p.day.delivered = row.delivered;
   p.day.sold_out = row.sold_out;
   if (row.sold_out && row.sold_out_minute) {
     p.day.sold_out_minute = static_cast<std::int16_t>(*row.sold_out_minute);

@@ -17,6 +17,7 @@ struct FitDay {
   std::int32_t store = 0;
   std::int32_t day = 0;  ///< days since FitData::first_date
   std::int32_t sold = 0;
+  std::int32_t delivered = 0;
   bool sold_out = false;
   std::int16_t sold_out_minute = -1;  ///< minutes after midnight; -1 = not recorded
 };

@@ -3,138 +3,85 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
-#include <numeric>
-#include <pcg_random.hpp>
+
+#include "sim/fit/dense_newton.hpp"
 
 namespace larder {
 
 namespace {
 
 constexpr double kNever = std::numeric_limits<double>::infinity();
-constexpr int kBootstrap = 200;
+constexpr double kUnknown = -1.0;
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+constexpr int kRounds = 10;
+constexpr double kTolerance = 1e-3;  // in share: a small part of any share's standard error
 
-/// One store-day whose sell-out times are all known, with the fitted items' rows.
-struct StoreDay {
-  int store = 0;
-  int day = 0;
-  std::vector<long> row;    ///< per item (-1 = no row)
-  std::vector<double> tau;  ///< sell-out minute per item (+inf: not out)
+/// One source of substitute demand on a row of the substitute: the row of the item that was
+/// out and the share of its day's demand still to come at its sell-out, G(tau).
+struct Source {
+  int slot = 0;  ///< index into the target's list of sources
+  size_t row_out = 0;
+  double arrived = 0.0;  ///< G(tau)
+  double mean = 0.0;     ///< E[L] at the current fit
+  double spread = 0.0;   ///< the extra variance of L over Poisson, (1 - G)^2 Var(rate)
 };
 
-/// The pooled estimator over store-days weighted by `w` (1 each for the estimate; Poisson(1)
-/// weights for the bootstrap).
-class Pooling {
- public:
-  Pooling(const FitData& data, const Decomposition& fit, std::vector<StoreDay> days)
-      : data_(data),
-        fit_(fit),
-        days_(std::move(days)),
-        n_(static_cast<int>(data.items.size())),
-        hours_(data.columns.hours) {}
+/// A row of a target item with its sources.
+struct TargetRow {
+  size_t row = 0;
+  std::vector<Source> sources;
+};
 
-  /// alpha per pair (j * n + i), NaN where there is no hour in state {j}; `store_days` and
-  /// `lost` are filled when given.
-  std::vector<double> estimate(const std::vector<double>& w, std::vector<int>* store_days = nullptr,
-                               std::vector<double>* lost_units = nullptr) const {
-    const auto n = static_cast<size_t>(n_);
-    const auto H = static_cast<size_t>(hours_);
-    // Profiles from store-days on which nothing sold out (other days hold substitute sales).
-    std::vector<double> share(n * H, 0.0);
-    for (size_t d = 0; d < days_.size(); ++d) {
-      const StoreDay& sd = days_[d];
-      if (std::any_of(sd.tau.begin(), sd.tau.end(), [](double t) { return t < kNever; })) continue;
-      for (size_t k = 0; k < n; ++k) {
-        if (sd.row[k] < 0) continue;
-        const std::int32_t* h = data_.hours_of(static_cast<size_t>(sd.row[k]));
-        for (size_t x = 0; x < H; ++x) share[k * H + x] += w[d] * h[x];
-      }
-    }
-    for (size_t k = 0; k < n; ++k) {
-      const double total = std::accumulate(share.begin() + k * H, share.begin() + (k + 1) * H, 0.0);
-      for (size_t x = 0; x < H; ++x) share[k * H + x] = total > 0 ? share[k * H + x] / total : 0.0;
-    }
-    // Per item and hour of the day, sales per unit of fitted daily mean in state "none out".
-    std::vector<double> none_sales(n * H, 0.0), none_mean(n * H, 0.0);
-    std::vector<double> e(n * n, 0.0), l(n * n, 0.0);
-    std::vector<int> used(n * n, 0);
-    std::vector<double> pair_sales(n * n * H, 0.0), pair_mean(n * n * H, 0.0);
-    for (size_t d = 0; d < days_.size(); ++d) {
-      const StoreDay& sd = days_[d];
-      const int wd = data_.weekday(sd.day);
-      std::vector<char> touched(n * n, 0);
-      for (size_t x = 0; x < H; ++x) {
-        const double start = (data_.columns.first_hour + static_cast<double>(x)) * 60.0;
-        const double end = start + 60.0;
-        int out_count = 0;
-        size_t out_item = 0;
-        bool changes = false;
-        for (size_t k = 0; k < n; ++k) {
-          if (sd.row[k] < 0) continue;
-          if (sd.tau[k] <= start) {
-            ++out_count, out_item = k;
-          } else if (sd.tau[k] < end) {
-            changes = true;
-          }
-        }
-        if (changes || out_count > 1) continue;
-        for (size_t i = 0; i < n; ++i) {
-          if (sd.row[i] < 0 || (out_count == 1 && i == out_item)) continue;
-          const double sales = data_.hours_of(static_cast<size_t>(sd.row[i]))[x];
-          const double mu = fit_.mean(sd.store, static_cast<int>(i), wd);
-          if (out_count == 0) {
-            none_sales[i * H + x] += w[d] * sales;
-            none_mean[i * H + x] += w[d] * mu;
-            continue;
-          }
-          const size_t p = out_item * n + i;
-          pair_sales[p * H + x] += w[d] * sales;
-          pair_mean[p * H + x] += w[d] * mu;
-          l[p] +=
-              w[d] * fit_.mean(sd.store, static_cast<int>(out_item), wd) * share[out_item * H + x];
-          touched[p] = 1;
-        }
-      }
-      for (size_t p = 0; p < n * n; ++p) used[p] += touched[p];
-    }
-    std::vector<double> alpha(n * n, std::numeric_limits<double>::quiet_NaN());
-    for (size_t p = 0; p < n * n; ++p) {
-      const size_t i = p % n;
-      if (l[p] <= 0) continue;
-      double excess = 0.0;
-      bool ok = true;
-      for (size_t x = 0; x < H; ++x) {
-        if (pair_mean[p * H + x] <= 0) continue;
-        if (none_mean[i * H + x] <= 0) {
-          ok = false;  // no hour of this clock time without a sell-out: no baseline
-          break;
-        }
-        excess += pair_sales[p * H + x] -
-                  none_sales[i * H + x] / none_mean[i * H + x] * pair_mean[p * H + x];
-      }
-      if (ok) alpha[p] = excess / l[p];
-    }
-    if (store_days) *store_days = used;
-    if (lost_units) *lost_units = l;
-    return alpha;
+struct Target {
+  int item = 0;
+  std::vector<int> sources;     ///< source items (slot -> item), pairs with enough days
+  std::vector<int> store_days;  ///< per slot
+  std::vector<TargetRow> rows;  ///< rows with at least one source
+  Eigen::VectorXd alpha;        ///< per slot
+};
+
+/// E[L] and the extra variance of L for a source row under the fitted law of its item.
+void lost_demand(const FitData& data, const Decomposition& fit, Source& s) {
+  const FitDay& d = data.rows[s.row_out];
+  const ItemEstimate& e = fit.items[d.item];
+  const double m = fit.mean(d.store, d.item, data.weekday(d.day));
+  const double rest = 1.0 - s.arrived;
+  s.mean = m * rest;
+  s.spread = 0.0;
+  const double excess = e.cv * e.cv * m - 1.0;
+  if (e.family == DemandFamily::poisson || excess <= 0.0 || m <= 0.0) return;
+  const double r = m / excess;
+  const double rate = r / m + s.arrived;
+  s.mean = rest * (r + d.sold) / rate;
+  s.spread = rest * rest * (r + d.sold) / (rate * rate);
+}
+
+ExtraDemand extra_of(const TargetRow& tr, const Eigen::VectorXd& alpha) {
+  ExtraDemand x;
+  for (const Source& s : tr.sources) {
+    const double a = alpha[s.slot];
+    x.mean += a * s.mean;
+    x.var += a * s.mean + a * a * s.spread;  // Binomial(L, a): a E[L] + a^2 (Var L - E[L])
   }
+  return x;
+}
 
-  size_t size() const { return days_.size(); }
+double row_nll(const FitData& data, const ItemEstimate& e, double own, const ExtraDemand& x,
+               size_t row) {
+  const FitDay& d = data.rows[row];
+  if (d.sold_out && d.sold == 0) return 0.0;
+  if (!(own + x.mean > 0.0)) return std::numeric_limits<double>::infinity();
+  return -total_log_likelihood(e.family, own, e.cv, x, d.sold, d.sold_out);
+}
 
- private:
-  const FitData& data_;
-  const Decomposition& fit_;
-  std::vector<StoreDay> days_;
-  int n_;
-  int hours_;
-};
-
-}  // namespace
-
-std::vector<SubstituteShare> fit_substitution(const FitData& data, const Decomposition& fit,
-                                              int min_store_days) {
-  std::vector<SubstituteShare> out;
-  if (data.columns.hours == 0 || !data.columns.has_sold_out_time) return out;
-  const int n = static_cast<int>(data.items.size());
+/// Builds the targets: every ordered pair (out, substitute) of fitted items with at least
+/// `min_store_days` store-days on which `out` sold out at a known time (whether or not the
+/// substitute was still in stock: its demand counts the customers who came, served or not).
+/// Rows on a store-day with a sell-out of unknown time are marked in `excluded`.
+std::vector<Target> build_targets(const FitData& data, const Decomposition& fit,
+                                  const std::vector<IntradayFit>& intraday, int min_store_days,
+                                  std::vector<char>& excluded) {
+  const auto n = data.items.size();
   std::vector<size_t> order;
   for (size_t r = 0; r < data.rows.size(); ++r) {
     const FitDay& d = data.rows[r];
@@ -145,58 +92,252 @@ std::vector<SubstituteShare> fit_substitution(const FitData& data, const Decompo
     const FitDay& y = data.rows[b];
     return x.store != y.store ? x.store < y.store : x.day < y.day;
   });
-  std::vector<StoreDay> days;
-  for (const size_t r : order) {
-    const FitDay& d = data.rows[r];
-    if (days.empty() || days.back().store != d.store || days.back().day != d.day)
-      days.push_back({d.store, d.day, std::vector<long>(static_cast<size_t>(n), -1),
-                      std::vector<double>(static_cast<size_t>(n), kNever)});
-    days.back().row[d.item] = static_cast<long>(r);
-    if (d.sold_out) days.back().tau[d.item] = d.sold_out_minute < 0 ? -1.0 : d.sold_out_minute;
-  }
-  // A store-day with a sell-out of unknown time cannot be split into states.
-  std::erase_if(days, [](const StoreDay& sd) {
-    return std::any_of(sd.tau.begin(), sd.tau.end(), [](double t) { return t < 0; });
-  });
-  const Pooling pooling(data, fit, std::move(days));
-  std::vector<int> store_days;
-  std::vector<double> lost;
-  const std::vector<double> alpha =
-      pooling.estimate(std::vector<double>(pooling.size(), 1.0), &store_days, &lost);
-  // Standard errors by the Poisson bootstrap over store-days (every store-day gets a Poisson(1)
-  // weight; Hanley and MacGibbon 2006), profiles and baselines re-estimated each time. The
-  // weights come from a fixed pcg32 stream, so the output is reproducible.
-  const size_t pairs = alpha.size();
-  std::vector<double> sum(pairs, 0.0), sum_sq(pairs, 0.0);
-  std::vector<int> count(pairs, 0);
-  pcg32 g(0x5eed5b57u, 2009u);
-  std::vector<double> w(pooling.size());
-  for (int b = 0; b < kBootstrap; ++b) {
-    for (double& x : w) {
-      // Poisson(1) by inversion of one uniform.
-      const double u = (static_cast<double>(g()) + 0.5) * 0x1p-32;
-      double p = std::exp(-1.0), cdf = p;
-      int k = 0;
-      while (u > cdf && k < 20) p /= ++k, cdf += p;
-      x = k;
+  std::vector<std::vector<int>> count(n, std::vector<int>(n, 0));
+  // Candidate (target row, out item, out row, G) of every store-day.
+  struct Candidate {
+    size_t row_in, row_out;
+    int out;
+    double arrived;
+  };
+  std::vector<Candidate> candidates;
+  for (size_t b = 0; b < order.size();) {
+    size_t e = b;
+    while (e < order.size() && data.rows[order[e]].store == data.rows[order[b]].store &&
+           data.rows[order[e]].day == data.rows[order[b]].day)
+      ++e;
+    std::vector<long> row(n, -1);
+    std::vector<double> tau(n, kNever);
+    bool unknown = false;
+    for (size_t k = b; k < e; ++k) {
+      const FitDay& d = data.rows[order[k]];
+      row[d.item] = static_cast<long>(order[k]);
+      if (d.sold_out && d.sold > 0) {
+        tau[d.item] = d.sold_out_minute < 0 ? kUnknown : d.sold_out_minute;
+        unknown = unknown || d.sold_out_minute < 0;
+      }
     }
-    const std::vector<double> a = pooling.estimate(w);
-    for (size_t p = 0; p < pairs; ++p) {
-      if (std::isnan(a[p])) continue;
-      sum[p] += a[p], sum_sq[p] += a[p] * a[p], count[p]++;
-    }
-  }
-  for (int j = 0; j < n; ++j) {
-    for (int i = 0; i < n; ++i) {
-      const auto p = static_cast<size_t>(j * n + i);
-      if (i == j || std::isnan(alpha[p]) || store_days[p] < min_store_days || count[p] < 2)
+    for (size_t i = 0; i < n; ++i) {
+      if (row[i] < 0) continue;
+      if (unknown) {
+        excluded[static_cast<size_t>(row[i])] = 1;
         continue;
-      const double m = sum[p] / count[p];
-      const double se =
-          std::sqrt(std::max(sum_sq[p] / count[p] - m * m, 0.0) * count[p] / (count[p] - 1));
-      out.push_back({j, i, alpha[p], se, store_days[p], lost[p]});
+      }
+      for (size_t j = 0; j < n; ++j) {
+        if (j == i || row[j] < 0 || tau[j] == kNever) continue;
+        const auto& shares = intraday[j].shares;
+        if (shares.empty()) continue;
+        const double g = cumulative_share(shares, data.columns.first_hour, tau[j]);
+        count[j][i]++;
+        candidates.push_back(
+            {static_cast<size_t>(row[i]), static_cast<size_t>(row[j]), static_cast<int>(j), g});
+      }
+    }
+    b = e;
+  }
+  std::vector<Target> targets;
+  std::vector<int> target_of(n, -1);
+  std::vector<std::vector<int>> slot_of(n, std::vector<int>(n, -1));
+  for (size_t i = 0; i < n; ++i) {
+    Target t;
+    t.item = static_cast<int>(i);
+    for (size_t j = 0; j < n; ++j) {
+      if (count[j][i] < min_store_days) continue;
+      slot_of[i][j] = static_cast<int>(t.sources.size());
+      t.sources.push_back(static_cast<int>(j));
+      t.store_days.push_back(count[j][i]);
+    }
+    if (t.sources.empty()) continue;
+    t.alpha = Eigen::VectorXd::Zero(static_cast<Eigen::Index>(t.sources.size()));
+    target_of[i] = static_cast<int>(targets.size());
+    targets.push_back(std::move(t));
+  }
+  // Candidates arrive grouped by store-day, so a target row's sources are consecutive.
+  for (const Candidate& c : candidates) {
+    const int item = data.rows[c.row_in].item;
+    const int t = target_of[static_cast<size_t>(item)];
+    if (t < 0) continue;
+    const int slot = slot_of[static_cast<size_t>(item)][static_cast<size_t>(c.out)];
+    if (slot < 0) continue;
+    Target& tg = targets[static_cast<size_t>(t)];
+    if (tg.rows.empty() || tg.rows.back().row != c.row_in) tg.rows.push_back({c.row_in, {}});
+    tg.rows.back().sources.push_back({slot, c.row_out, c.arrived, 0.0, 0.0});
+  }
+  return targets;
+}
+
+/// Every row of the target in a fitted store and not excluded, with its sources if any.
+std::vector<std::pair<size_t, const TargetRow*>> all_rows(const FitData& data,
+                                                          const Decomposition& fit, const Target& t,
+                                                          const std::vector<char>& excluded) {
+  std::vector<std::pair<size_t, const TargetRow*>> rows;
+  size_t next = 0;
+  for (size_t r = 0; r < data.rows.size(); ++r) {
+    const FitDay& d = data.rows[r];
+    if (d.item != t.item || !fit.stores[d.store].fitted || excluded[r]) continue;
+    while (next < t.rows.size() && t.rows[next].row < r) ++next;
+    rows.emplace_back(r, next < t.rows.size() && t.rows[next].row == r ? &t.rows[next] : nullptr);
+  }
+  return rows;
+}
+
+/// The shares of one target with its weekday means held at the decomposition's up to one
+/// common factor, fitted with them (the base and the shares are strongly correlated: without
+/// it the alternation with the decomposition would crawl).
+void fit_shares(const FitData& data, const Decomposition& fit, Target& t,
+                const std::vector<char>& excluded) {
+  const ItemEstimate& e = fit.items[static_cast<size_t>(t.item)];
+  const auto rows = all_rows(data, fit, t, excluded);
+  std::vector<double> own;
+  for (const auto& [r, tr] : rows) {
+    const FitDay& d = data.rows[r];
+    own.push_back(fit.mean(d.store, t.item, data.weekday(d.day)));
+  }
+  const Eigen::Index S = t.alpha.size();
+  const DenseValue f = [&](const Eigen::VectorXd& x) {
+    const double scale = std::exp(x[S]);
+    double v = 0.0;
+    for (size_t k = 0; k < rows.size(); ++k) {
+      const TargetRow* tr = rows[k].second;
+      v += row_nll(data, e, own[k] * scale, tr ? extra_of(*tr, x.head(S)) : ExtraDemand{},
+                   rows[k].first);
+    }
+    return v;
+  };
+  Eigen::VectorXd x0 = Eigen::VectorXd::Zero(S + 1);
+  x0.head(S) = t.alpha;
+  const DenseMinimum dm = minimize_dense(f, x0);
+  t.alpha = dm.x.head(S);
+}
+
+/// Standard errors of the shares from the joint observed information of the target's log
+/// weekday means, log cv (not for poisson) and shares, over all its rows.
+Eigen::VectorXd share_se(const FitData& data, const Decomposition& fit, const Target& t,
+                         const std::vector<char>& excluded) {
+  const ItemEstimate& e = fit.items[static_cast<size_t>(t.item)];
+  std::vector<int> block(7, -1);
+  Eigen::Index K = 0;
+  for (int w = 0; w < 7; ++w)
+    if (e.weekday_seen[w]) block[static_cast<size_t>(w)] = static_cast<int>(K++);
+  const bool spread = e.family != DemandFamily::poisson;
+  const Eigen::Index S = t.alpha.size();
+  const Eigen::Index n = K + (spread ? 1 : 0) + S;
+  Eigen::VectorXd theta(n);
+  for (int w = 0; w < 7; ++w)
+    if (block[static_cast<size_t>(w)] >= 0)
+      theta[block[static_cast<size_t>(w)]] = std::log(e.base * e.weekday[w]);
+  if (spread) theta[K] = std::log(e.cv);
+  theta.tail(S) = t.alpha;
+  const auto rows = all_rows(data, fit, t, excluded);
+  const DenseValue f = [&](const Eigen::VectorXd& x) {
+    ItemEstimate at = e;
+    if (spread) at.cv = std::exp(x[K]);
+    const Eigen::VectorXd alpha = x.tail(S);
+    double v = 0.0;
+    for (const auto& [r, tr] : rows) {
+      const FitDay& d = data.rows[r];
+      const double own =
+          fit.stores[d.store].size * std::exp(x[block[static_cast<size_t>(data.weekday(d.day))]]);
+      v += row_nll(data, at, own, tr ? extra_of(*tr, alpha) : ExtraDemand{}, r);
+    }
+    return v;
+  };
+  Eigen::MatrixXd H = dense_hessian(f, theta, 1e-4);
+  Eigen::VectorXd se = Eigen::VectorXd::Constant(S, std::numeric_limits<double>::infinity());
+  if (spread && Eigen::LLT<Eigen::MatrixXd>(H).info() != Eigen::Success) {
+    // A negative binomial at its Poisson limit: the cv is not determined (flat), so the
+    // shares' errors are taken with the cv held.
+    Eigen::MatrixXd without(n - 1, n - 1);
+    std::vector<Eigen::Index> keep;
+    for (Eigen::Index k = 0; k < n; ++k)
+      if (k != K) keep.push_back(k);
+    for (size_t a = 0; a < keep.size(); ++a)
+      for (size_t b = 0; b < keep.size(); ++b)
+        without(static_cast<Eigen::Index>(a), static_cast<Eigen::Index>(b)) = H(keep[a], keep[b]);
+    H = without;
+  }
+  Eigen::LLT<Eigen::MatrixXd> llt(H);
+  if (llt.info() != Eigen::Success) return se;
+  const Eigen::Index m = H.rows();
+  const Eigen::MatrixXd cov = llt.solve(Eigen::MatrixXd::Identity(m, m));
+  for (Eigen::Index s = 0; s < S; ++s) se[s] = std::sqrt(cov(m - S + s, m - S + s));
+  return se;
+}
+
+}  // namespace
+
+SubstitutionFit fit_substitution(const FitData& data, const FitOptions& options, Decomposition& fit,
+                                 const std::vector<IntradayFit>& intraday, int min_store_days) {
+  SubstitutionFit out;
+  if (data.columns.hours == 0 || !data.columns.has_sold_out_time) return out;
+  std::vector<char> excluded(data.rows.size(), 0);
+  std::vector<Target> targets = build_targets(data, fit, intraday, min_store_days, excluded);
+  if (targets.empty()) return out;
+  // Only a substitute's own rows need its sources' sell-out times.
+  std::vector<char> is_target(data.items.size(), 0);
+  for (const Target& t : targets) is_target[static_cast<size_t>(t.item)] = 1;
+  for (size_t r = 0; r < data.rows.size(); ++r)
+    if (!is_target[static_cast<size_t>(data.rows[r].item)]) excluded[r] = 0;
+  out.extra.assign(data.rows.size(), ExtraDemand{});
+  for (size_t r = 0; r < data.rows.size(); ++r)
+    if (excluded[r]) out.extra[r].mean = kNaN;
+  out.substitutes_from.assign(data.rows.size(), -1);
+  for (const Target& t : targets) {
+    for (const TargetRow& tr : t.rows) {
+      // The first source sell-out before this item's own (its later sales hold substitutes).
+      const FitDay& own = data.rows[tr.row];
+      const int own_out = own.sold_out ? own.sold_out_minute : 24 * 60;
+      std::int16_t first = -1;
+      for (const Source& s : tr.sources) {
+        const std::int16_t m = data.rows[s.row_out].sold_out_minute;
+        if (m < own_out && (first < 0 || m < first)) first = m;
+      }
+      out.substitutes_from[tr.row] = first;
     }
   }
+  for (out.rounds = 1; out.rounds <= kRounds; ++out.rounds) {
+    double change = 0.0;
+    for (Target& t : targets) {
+      for (TargetRow& tr : t.rows)
+        for (Source& s : tr.sources) lost_demand(data, fit, s);
+      const Eigen::VectorXd before = t.alpha;
+      fit_shares(data, fit, t, excluded);
+      change = std::max(change, (t.alpha - before).cwiseAbs().maxCoeff());
+      for (const TargetRow& tr : t.rows) out.extra[tr.row] = extra_of(tr, t.alpha);
+    }
+    // Between rounds each item keeps its family; the last round chooses again.
+    const bool last = change < kTolerance || out.rounds == kRounds;
+    FitOptions round = options;
+    round.intervals = last;
+    if (!last)
+      for (const ItemEstimate& e : fit.items) round.item_family.emplace_back(e.family);
+    fit = fit_decomposition(data, round, out.extra);
+    if (change < kTolerance) {
+      out.converged = true;
+      break;
+    }
+  }
+  out.rounds = std::min(out.rounds, kRounds);
+  for (Target& t : targets) {
+    for (TargetRow& tr : t.rows)
+      for (Source& s : tr.sources) lost_demand(data, fit, s);
+    if (!fit.items[static_cast<size_t>(t.item)].fitted) continue;
+    const Eigen::VectorXd se = share_se(data, fit, t, excluded);
+    for (size_t k = 0; k < t.sources.size(); ++k) {
+      SubstituteShare x;
+      x.out_item = t.sources[k];
+      x.substitute = t.item;
+      x.share = t.alpha[static_cast<Eigen::Index>(k)];
+      x.se = se[static_cast<Eigen::Index>(k)];
+      x.store_days = t.store_days[k];
+      for (const TargetRow& tr : t.rows)
+        for (const Source& s : tr.sources)
+          if (s.slot == static_cast<int>(k)) x.lost_units += s.mean;
+      out.shares.push_back(x);
+    }
+  }
+  std::sort(out.shares.begin(), out.shares.end(), [](const auto& a, const auto& b) {
+    return a.out_item != b.out_item ? a.out_item < b.out_item : a.substitute < b.substitute;
+  });
   return out;
 }
 
