@@ -12,6 +12,7 @@
 #include "reports/atomic_file.hpp"
 #include "reports/history_csv.hpp"
 #include "reports/item_file_csv.hpp"
+#include "reports/output_path.hpp"
 #include "sim/runner/record_history.hpp"
 
 namespace larder {
@@ -38,6 +39,9 @@ void make_parent(const std::filesystem::path& file) {
 }  // namespace
 
 int history_command(const HistoryArgs& args) {
+  std::vector<OutputFile> outputs = {{args.out, "--out"}};
+  if (!args.items_out.empty()) outputs.push_back({args.items_out, "--items-out"});
+  check_output_files(outputs, {{args.common.scenario, "the scenario"}});
   PreparedScenario prepared = prepare_scenario(args.common.scenario, args.common.overrides);
   const Scenario& sc = prepared.scenario;
   const int k = find_policy(prepared, args.policy);
