@@ -173,6 +173,20 @@ TEST_CASE("hostile histories through fit: refused clearly, or written so that ch
     CHECK(nul.code == 2);
     CHECK(!fs::exists(out));
   }
+  SECTION("history --items-out refuses an attribute value the item file cannot hold") {
+    std::string text = kScenario;
+    text.replace(text.find("type: bread"), 11, "type: \"two\\nlines\"");
+    const fs::path multi = write_text("multi-line.yaml", text);
+    const fs::path items = scratch("multi-items.csv");
+    fs::remove(items);
+    const Outcome h =
+        larder(fmt::format("history {} --policy habit --out {} --items-out {} -q", multi.string(),
+                           scratch("multi-h.csv").string(), items.string()));
+    INFO(h.err);
+    CHECK(h.code == 2);
+    CHECK(h.err.find("item 'roll': attribute type holds a line break") != std::string::npos);
+    CHECK(!fs::exists(items));
+  }
   SECTION("item file values beyond the loader's limits are refused") {
     const Outcome priced = fit(good,
                                "item,price,unit_cost,shelf_life_days\nroll,1e12,0.4,1\n"
