@@ -11,7 +11,9 @@
 #include "reports/allocation_report.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/csv.hpp"
+#include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
+#include "reports/output_path.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "sim/runner/network_phases.hpp"
 
@@ -74,6 +76,20 @@ int allocate_command(const AllocateArgs& args) {
     throw InputError(d);
   }
 
+  const std::filesystem::path file =
+      args.out.empty() ? std::filesystem::path("larder-out") / sc.name /
+                             fmt::format("allocation-{}.csv", prepared.policies[size_t(k)].name)
+                       : std::filesystem::path(args.out);
+  const std::filesystem::path html =
+      file.parent_path() /
+      fmt::format("allocation-{}.html", prepared.policies[static_cast<size_t>(k)].name);
+  check_output_files({{file, "--out"}, {html, "the HTML page beside --out"}},
+                     {{args.common.scenario, "the scenario"}});
+  // The folder is made and tested for writing before the days are simulated.
+  const std::filesystem::path folder = file.has_parent_path() ? file.parent_path() : ".";
+  ensure_directory(folder);
+  check_writable(folder);
+
   const DemandModel demand(sc);
   const SimSetup setup{sc, demand, prepared.policies, sc.seed};
   tbb::task_arena arena(args.common.threads > 0 ? args.common.threads : tbb::task_arena::automatic);
@@ -108,11 +124,6 @@ int allocate_command(const AllocateArgs& args) {
   const NetworkTarget& target = *prepared.policies[static_cast<size_t>(k)].quantity->network();
   csv += csv_row("network", "", "", "", target.target, network);
 
-  const std::filesystem::path file =
-      args.out.empty() ? std::filesystem::path("larder-out") / sc.name /
-                             fmt::format("allocation-{}.csv", prepared.policies[size_t(k)].name)
-                       : std::filesystem::path(args.out);
-  if (file.has_parent_path()) ensure_directory(file.parent_path());
   write_file_atomically(file, csv);
 
   AllocationPage page;
@@ -144,8 +155,6 @@ int allocate_command(const AllocateArgs& args) {
       plan.allocation.feasible ? ""
                                : " (the target cannot be met: every group at its "
                                  "highest level)");
-  const std::filesystem::path html =
-      file.parent_path() / fmt::format("allocation-{}.html", page.policy);
   write_file_atomically(html, allocation_html(page));
 
   fmt::print("{}: network_in_stock, target {:.0f}% in stock at close, groups {}\n", page.policy,

@@ -55,6 +55,7 @@ int check_command(const CommonOptions& args) {
   const PreparedScenario prepared = prepare_scenario(args.scenario, args.overrides);
   const Scenario& sc = prepared.scenario;
   for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
+  for (const std::string& w : setting_warnings(sc)) fmt::print(stderr, "{}\n", w);
   const int threads = args.threads > 0
                           ? args.threads
                           : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));

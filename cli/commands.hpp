@@ -12,8 +12,10 @@ namespace larder {
 
 /// Options shared by commands that simulate.
 struct CommonOptions {
-  std::string scenario;  ///< "" = built-in demo
-  Overrides overrides;
+  std::string scenario;           ///< "" = built-in demo
+  Overrides overrides;            ///< from the texts below (read_overrides)
+  std::string seed_text;          ///< --seed as typed ("" = not given)
+  std::string replications_text;  ///< -r as typed ("" = not given)
   int threads = 0;
   bool quiet = false;
   std::string format = "table";  ///< table | json

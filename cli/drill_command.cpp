@@ -16,6 +16,8 @@
 #include "reports/class_summary.hpp"
 #include "reports/drill_day_text.hpp"
 #include "reports/output_claim.hpp"
+#include "reports/output_path.hpp"
+#include "reports/result_set.hpp"
 #include "reports/scorecard_html.hpp"
 #include "reports/scorecard_json.hpp"
 #include "reports/scorecard_text.hpp"
@@ -100,12 +102,36 @@ bool play_at_prompt(DrillGame& game, DrillDecisions& decided, const fs::path& cs
   return true;
 }
 
+std::vector<std::string> drill_file_names() {
+  return {"decisions.csv", "scorecard.json", "scorecard.txt", "scorecard.html"};
+}
+
+/// Before the drill starts: the folder's paths are safe to write, and a folder holding a
+/// drill's saved decisions is not written over without --force.
+void check_drill_folder(const fs::path& dir, const DrillArgs& args) {
+  check_output_folder(
+      dir, drill_file_names(),
+      {{args.common.scenario, "the scenario"}, {args.decisions, "the --decisions file"}});
+  std::error_code ec;
+  if (!args.force && fs::exists(dir / "decisions.csv", ec)) {
+    input_error((dir / "decisions.csv").string(),
+                "this folder holds a drill's saved decisions; a new session would replace them",
+                "choose another --out or --trainee, or pass --force to replace them");
+  }
+}
+
 int class_view(const DrillArgs& args) {
   const ClassSummary summary = read_class(args.summary);
   const fs::path dir = args.out.empty() ? fs::path("larder-out") / (summary.scenario + "-class")
                                         : fs::path(args.out);
+  std::vector<InputFile> inputs;
+  for (const std::string& p : args.summary) {
+    inputs.push_back({p, "a scorecard given to --summary"});
+    inputs.push_back({fs::path(p) / "scorecard.json", "a scorecard given to --summary"});
+  }
+  check_output_folder(dir, {"class.csv"}, inputs);
   claim_output_folder(dir, args.force);
-  write_file_atomically(dir / "class.csv", class_csv(summary));
+  publish_result_set(dir, {{"class.csv", class_csv(summary)}}, {});
   std::cout << class_text(summary);
   if (!args.common.quiet) fmt::print(stderr, "wrote {}\n", (dir / "class.csv").string());
   return 0;
@@ -131,16 +157,20 @@ int drill_command(const DrillArgs& args) {
                 "add e.g. drill: { store: quay, items: [rye, croissant], days: 28, compare: "
                 "[newsvendor, habit] } (README, Training drills)");
   }
-  DrillGame game(prepared.scenario);
   const fs::path dir = args.out.empty() ? fs::path("larder-out") / prepared.scenario.name /
                                               fmt::format("drill-{}", args.trainee)
                                         : fs::path(args.out);
+  check_drill_folder(dir, args);
+  DrillGame game(prepared.scenario);
   DrillDecisions decided;
   if (!args.decisions.empty()) {
     decided = read_decisions(game, args.decisions);
     claim_output_folder(dir, args.force);
   } else {
     claim_output_folder(dir, args.force);
+    // --force over a saved drill: its files leave together, so the folder never pairs this
+    // session's decisions with the earlier scorecard.
+    publish_result_set(dir, {}, drill_file_names());
     if (!play_at_prompt(game, decided, dir / "decisions.csv", args.trainee)) {
       write_file_atomically(dir / "decisions.csv", decisions_csv(game, decided));
       fmt::print(stderr,
@@ -151,12 +181,14 @@ int drill_command(const DrillArgs& args) {
     }
   }
   const Scorecard card = score_drill(game, decided, args.trainee);
-  write_file_atomically(dir / "decisions.csv", decisions_csv(game, decided));
   const std::string json = scorecard_json_text(card);
   const std::string text = scorecard_text(card);
-  write_file_atomically(dir / "scorecard.json", json);
-  write_file_atomically(dir / "scorecard.txt", text);
-  write_file_atomically(dir / "scorecard.html", scorecard_html(card));
+  publish_result_set(dir,
+                     {{"decisions.csv", decisions_csv(game, decided)},
+                      {"scorecard.json", json},
+                      {"scorecard.txt", text},
+                      {"scorecard.html", scorecard_html(card)}},
+                     {});
   if (args.common.format == "json") {
     std::cout << json;
   } else {

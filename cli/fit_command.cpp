@@ -11,10 +11,12 @@
 
 #include "cli/commands.hpp"
 #include "reports/atomic_file.hpp"
+#include "reports/output_path.hpp"
 #include "sim/fit/scenario_writer.hpp"
 #include "sim/history/history_reader.hpp"
 #include "sim/runner/fit_check.hpp"
 #include "sim/scenario/ids.hpp"
+#include "sim/scenario/load_scenario.hpp"
 
 namespace larder {
 
@@ -124,19 +126,10 @@ std::string check_table(const std::vector<ItemCheck>& checks, int replications) 
 }  // namespace
 
 int fit_command(const FitArgs& args) {
+  check_output_files({{args.out, "--out"}},
+                     {{args.history, "the history"}, {args.items, "the --items file"}});
   std::vector<ItemRecord> items;
   if (!args.items.empty()) items = read_item_file(args.items);
-  SeriesBuilder builder(args.history);
-  const HistoryColumns columns =
-      read_history_file(args.history, [&](const HistoryRow& row) { builder.add(row); });
-  FitOptions options;
-  options.min_uncensored_days = args.min_days;
-  options.substitution = args.substitution;
-  if (args.family == "poisson") options.family = DemandFamily::poisson;
-  if (args.family == "negative_binomial") options.family = DemandFamily::negative_binomial;
-  if (args.family == "normal") options.family = DemandFamily::normal;
-  const FitResult result = fit_history(builder.finish(columns), options);
-
   WriteOptions w;
   w.name = args.name.empty() ? default_name(args.history) : args.name;
   if (!is_valid_id(w.name)) {
@@ -147,7 +140,27 @@ int fit_command(const FitArgs& args) {
   w.history_file = args.history;
   w.items_file = args.items;
   w.items = std::move(items);
+  SeriesBuilder builder(args.history);
+  const HistoryColumns columns =
+      read_history_file(args.history, [&](const HistoryRow& row) { builder.add(row); });
+  FitOptions options;
+  options.min_uncensored_days = args.min_days;
+  options.substitution = args.substitution;
+  if (args.family == "poisson") options.family = DemandFamily::poisson;
+  if (args.family == "negative_binomial") options.family = DemandFamily::negative_binomial;
+  if (args.family == "normal") options.family = DemandFamily::normal;
+  FitData data = builder.finish(columns);
+  check_fit_writable(data, w);  // before the search: ids or values no scenario could hold
+  const FitResult result = fit_history(std::move(data), options);
+
   const std::string yaml = fitted_scenario_yaml(result, w);
+  // The last guard: what is written must load (issue 23). A failure here is larder's fault.
+  Diagnostics loaded;
+  if (!parse_scenario(yaml, args.out, loaded)) {
+    throw std::runtime_error(
+        fmt::format("the fitted scenario would not load; nothing written. The loader says:\n{}",
+                    loaded.format()));
+  }
   const std::filesystem::path out(args.out);
   if (out.has_parent_path()) ensure_directory(out.parent_path());
   write_file_atomically(out, yaml);

@@ -12,6 +12,7 @@
 #include "reports/atomic_file.hpp"
 #include "reports/history_csv.hpp"
 #include "reports/item_file_csv.hpp"
+#include "reports/output_path.hpp"
 #include "sim/runner/record_history.hpp"
 
 namespace larder {
@@ -31,6 +32,25 @@ int find_policy(const PreparedScenario& p, const std::string& name) {
   throw InputError(std::move(d));
 }
 
+/// The item file is read line by line (`larder fit --items`): an attribute value holding a line
+/// break (possible in YAML, "a\nb") would make a file larder cannot read back, so it is refused
+/// before the days are simulated.
+void check_item_file_values(const Scenario& sc) {
+  Diagnostics d;
+  for (const Item& it : sc.items) {
+    for (const auto& [key, value] : it.attributes) {
+      if (value.find_first_of("\r\n") != std::string::npos) {
+        d.error({sc.file, 0, 0},
+                fmt::format("item '{}': attribute {} holds a line break, which the item file "
+                            "(--items-out) cannot hold",
+                            it.id, key),
+                "write the value on one line, or leave out --items-out");
+      }
+    }
+  }
+  if (!d.ok()) throw InputError(std::move(d));
+}
+
 void make_parent(const std::filesystem::path& file) {
   if (file.has_parent_path()) ensure_directory(file.parent_path());
 }
@@ -38,9 +58,13 @@ void make_parent(const std::filesystem::path& file) {
 }  // namespace
 
 int history_command(const HistoryArgs& args) {
+  std::vector<OutputFile> outputs = {{args.out, "--out"}};
+  if (!args.items_out.empty()) outputs.push_back({args.items_out, "--items-out"});
+  check_output_files(outputs, {{args.common.scenario, "the scenario"}});
   PreparedScenario prepared = prepare_scenario(args.common.scenario, args.common.overrides);
   const Scenario& sc = prepared.scenario;
   const int k = find_policy(prepared, args.policy);
+  if (!args.items_out.empty()) check_item_file_values(sc);
   const std::filesystem::path out(args.out);
 
   tbb::task_arena arena(args.common.threads > 0 ? args.common.threads : tbb::task_arena::automatic);

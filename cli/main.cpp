@@ -8,6 +8,7 @@
 #include <exception>
 
 #include "cli/commands.hpp"
+#include "cli/option_values.hpp"
 #include "policies/registry.hpp"
 
 namespace {
@@ -28,10 +29,12 @@ void add_common(CLI::App& cmd, larder::CommonOptions& o, bool scenario_required)
                      scenario_required ? "scenario file (YAML, see scenarios/)"
                                        : "scenario file (YAML); omit to use the built-in demo");
   if (scenario_required) s->required();
-  cmd.add_option("-r,--replications", o.overrides.replications,
-                 "replications (independent realisations); overrides the scenario")
-      ->check(CLI::Range(1, 1000000));
-  cmd.add_option("--seed", o.overrides.seed, "random seed; overrides the scenario");
+  cmd.add_option("-r,--replications", o.replications_text,
+                 "replications (independent realisations), 1 to 1000000 as the scenario's "
+                 "replications: key reads them (1e3 is 1000); overrides the scenario");
+  cmd.add_option("--seed", o.seed_text,
+                 "random seed, digits only, 0 to 18446744073709551615 (as the scenario's seed: "
+                 "key); overrides the scenario");
   cmd.add_option("-t,--threads", o.threads,
                  "worker threads [all cores]; results do not depend on it")
       ->check(CLI::Range(1, 4096));
@@ -334,6 +337,12 @@ int main(int argc, char** argv) {
     run.common.command_line = check.command_line = allocate.common.command_line =
         sweep.common.command_line = history.common.command_line = joined(argc, argv);
     drill.common.command_line = run.common.command_line;
+    // Option values with the scenario keys' rules, before any command reads or creates anything.
+    for (larder::CommonOptions* o :
+         {&run.common, &check, &sweep.common, &allocate.common, &history.common, &drill.common}) {
+      o->overrides.seed = larder::seed_option(o->seed_text);
+      o->overrides.replications = larder::replications_option(o->replications_text);
+    }
     run.mpi = mpi.world();
     if (run.mpi.rank != 0) run.common.quiet = true;  // rank 0 speaks for the run
     if (*run_cmd || app.get_subcommands().empty()) return larder::run_command(run);

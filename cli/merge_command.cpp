@@ -13,6 +13,7 @@
 #include "reports/html_report.hpp"
 #include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
+#include "reports/output_path.hpp"
 #include "reports/shard_file.hpp"
 #include "reports/summary_json.hpp"
 #include "reports/terminal_table.hpp"
@@ -61,13 +62,17 @@ int merge_command(const MergeArgs& args) {
   const RunResult merged = merge_shards(shards, fmt::format("{}", fmt::join(args.inputs, ", ")));
   const std::filesystem::path dir = args.out.empty() ? default_folder(merged.info.scenario_name)
                                                      : std::filesystem::path(args.out);
+  std::vector<InputFile> inputs;
+  for (const ShardSource& s : shards) inputs.push_back({s.name, "a shard file"});
+  check_output_folder(dir, run_output_names(), inputs);
   claim_output_folder(dir, args.force);
-  write_run_outputs(merged, dir);
+  std::vector<ResultFile> extra;
   try {
-    write_file_atomically(dir / "report.html", merged_report(shards.front().shard, merged));
+    extra.push_back({"report.html", merged_report(shards.front().shard, merged)});
   } catch (const std::exception& e) {
     fmt::print(stderr, "larder: note: report.html not written: {}\n", e.what());
   }
+  write_run_outputs(merged, dir, std::move(extra));
   if (args.format == "json") {
     fmt::print("{}\n", summary_json(merged).dump(2));
   } else {

@@ -11,6 +11,8 @@
 #include "reports/atomic_file.hpp"
 #include "reports/html_report.hpp"
 #include "reports/output_claim.hpp"
+#include "reports/output_folder.hpp"
+#include "reports/output_path.hpp"
 #include "reports/shard_file.hpp"
 #include "reports/summary_json.hpp"
 #include "reports/terminal_table.hpp"
@@ -50,6 +52,7 @@ int run_command(const RunArgs& args) {
   const Scenario& sc = prepared.scenario;
   if (!args.common.quiet) {
     for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
+    for (const std::string& w : setting_warnings(sc)) fmt::print(stderr, "{}\n", w);
   }
   if (!sc.seed_given && !args.common.quiet) {
     fmt::print(stderr, "seed {} was drawn at random; pass --seed {} to repeat this run\n", sc.seed,
@@ -66,9 +69,19 @@ int run_command(const RunArgs& args) {
   const RunSlice slice =
       run_slice(mpi ? fmt::format("{}/{}", args.mpi.rank + 1, args.mpi.size) : args.shard,
                 sc.replications, sc.seed_given);
+  // Every option is checked before anything is created (a bad --precision leaves no folder).
+  const std::optional<PrecisionTarget> precision = precision_option(args, sc);
+  if (mpi && precision) {
+    Diagnostics d;
+    d.error({sc.file, 0, 0}, "--precision cannot be combined with mpirun");
+    throw InputError(d);
+  }
   check_memory(sc, prepared.policies, args.common.threads, args.max_memory);
   const std::filesystem::path dir = args.out.empty() ? std::filesystem::path("larder-out") / sc.name
                                                      : std::filesystem::path(args.out);
+  std::vector<std::string> names = run_output_names();
+  if (slice.shard) names.push_back(shard_file_name(*slice.shard));
+  check_output_folder(dir, names, {{args.common.scenario, "the scenario"}});
   claim_output_folder(dir, args.force);  // before simulating: a refusal costs nothing
   Progress progress("replications", args.common.quiet);
   const InterruptGuard interrupt;  // Ctrl-C stops after the current batch (interrupt.hpp)
@@ -78,12 +91,6 @@ int run_command(const RunArgs& args) {
   options.replications = slice.range.count;
   options.stop = &interrupt.stop_flag();
   options.progress = [&](int done, int total) { progress.update(done, total); };
-  const std::optional<PrecisionTarget> precision = precision_option(args, sc);
-  if (mpi && precision) {
-    Diagnostics d;
-    d.error({sc.file, 0, 0}, "--precision cannot be combined with mpirun");
-    throw InputError(d);
-  }
   RunResult result = precision ? run_to_precision(sc, prepared.policies, options, *precision,
                                                   args.max_replications)
                                : run_policies(sc, prepared.policies, options);
@@ -95,8 +102,8 @@ int run_command(const RunArgs& args) {
   RunSlice written = slice;
   if (mpi) {
     // Rank 0 gathers every rank's slice and merges them into the whole run.
-    const RunTarget mine{dir, slice, sc.replications, args.common.scenario,
-                         args.common.command_line};
+    const RunTarget mine{
+        dir, slice, sc.replications, args.common.scenario, args.common.command_line, false, ""};
     const std::vector<std::string> texts =
         gather_on_root(shard_file_text(as_shard(result, mine, !interrupt.interrupted())));
     if (args.mpi.rank != 0) return 0;
@@ -112,13 +119,14 @@ int run_command(const RunArgs& args) {
   // Stopped early: fewer replications than asked, or a --precision run cut short.
   const bool stopped =
       interrupt.interrupted() && (precision || result.info.replications < written.range.count);
-  const RunOutcome outcome = write_run_results(
-      result,
-      {dir, written, sc.replications, args.common.scenario, args.common.command_line, stopped});
-  if (outcome.show_results && outcome.exit_code == 0) {  // a whole run, finished: report.html
+  RunTarget target{
+      dir, written, sc.replications, args.common.scenario, args.common.command_line, stopped, ""};
+  if (!written.shard && !stopped && result.info.replications > 0) {
+    // A whole run, finished: report.html belongs to the same set as the other files.
     const DailyTrace trace = daily_trace(sc, prepared.policies, written.range.first);
-    write_file_atomically(dir / "report.html", html_report(result, report_context(sc, trace)));
+    target.report_html = html_report(result, report_context(sc, trace));
   }
+  const RunOutcome outcome = write_run_results(result, target);
   if (outcome.show_results && args.common.format == "json") {
     fmt::print("{}\n", summary_json(result).dump(2));
   } else if (outcome.show_results) {

@@ -83,7 +83,10 @@ RunOutcome write_run_results(const RunResult& result, const RunTarget& target) {
     out.note = fmt::format("shard {}/{} ({}) written to {}", k.index, k.count,
                            range_text(target.slice.range.first, done), file.string());
   } else {
-    write_run_outputs(result, dir);
+    std::vector<ResultFile> extra;
+    if (complete && !target.report_html.empty())
+      extra.push_back({"report.html", target.report_html});
+    write_run_outputs(result, dir, std::move(extra));
     out.note = fmt::format("results written to {} ({} replications in {})", dir.string(), done,
                            format_duration(result.info.seconds));
   }

@@ -23,6 +23,7 @@ struct RunTarget {
   std::string scenario_path;   ///< "" = the built-in demo (its text identifies a shard's run)
   std::string command_line;    ///< as typed
   bool stopped = false;        ///< Ctrl-C stopped the run before it finished its work
+  std::string report_html;     ///< report.html of a whole, finished run ("" = none)
 };
 
 /// What was written, for the command to report.

@@ -2,11 +2,9 @@
 
 #include <fmt/format.h>
 
-#include <fstream>
-#include <sstream>
-
 #include "cli/demo_scenario.hpp"
 #include "sim/scenario/diagnostics.hpp"
+#include "sim/scenario/load_scenario.hpp"
 
 namespace larder {
 
@@ -41,10 +39,7 @@ RunSlice run_slice(const std::string& text, int replications, bool seed_given) {
 
 std::string scenario_text(const std::string& path) {
   if (path.empty()) return demo_scenario_text();
-  std::ifstream in(path, std::ios::binary);
-  std::stringstream text;
-  text << in.rdbuf();
-  return text.str();
+  return read_scenario_text(path);
 }
 
 }  // namespace larder

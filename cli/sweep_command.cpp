@@ -5,8 +5,6 @@
 #include <fmt/format.h>
 
 #include <filesystem>
-#include <fstream>
-#include <sstream>
 
 #include "cli/commands.hpp"
 #include "cli/demo_scenario.hpp"
@@ -15,25 +13,16 @@
 #include "reports/number_format.hpp"
 #include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
+#include "reports/output_path.hpp"
+#include "reports/result_set.hpp"
 #include "reports/sensitivity.hpp"
 #include "reports/sweep_csv.hpp"
 #include "reports/sweep_report.hpp"
+#include "sim/scenario/load_scenario.hpp"
 
 namespace larder {
 
 namespace {
-
-std::string read_text(const std::string& path) {
-  std::ifstream in(path);
-  if (!in) {
-    Diagnostics d;
-    d.error({path, 0, 0}, "cannot read the scenario file");
-    throw InputError(d);
-  }
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
 
 std::vector<Setting> read_settings(const std::vector<std::string>& raw, const std::string& label,
                                    const char* option) {
@@ -57,7 +46,8 @@ std::vector<Setting> read_settings(const std::vector<std::string>& raw, const st
 int sweep_command(const SweepArgs& args) {
   SweepSpec spec;
   spec.label = args.common.scenario.empty() ? "<demo>" : args.common.scenario;
-  spec.text = args.common.scenario.empty() ? demo_scenario_text() : read_text(args.common.scenario);
+  spec.text = args.common.scenario.empty() ? demo_scenario_text()
+                                           : read_scenario_text(args.common.scenario);
   spec.settings = read_settings(args.set, spec.label, "set");
   spec.varies = read_settings(args.vary, spec.label, "vary");
   if (spec.settings.empty() == spec.varies.empty()) {
@@ -70,20 +60,37 @@ int sweep_command(const SweepArgs& args) {
   spec.replications = args.common.overrides.replications;
   spec.seed = args.common.overrides.seed;
   spec.options.threads = args.common.threads;
+  // The output folder is claimed (and tested for writing) before the points run.
+  std::filesystem::path dir = args.out;
+  if (dir.empty()) {
+    Diagnostics ignored;  // run_sweep reports the scenario's problems
+    if (const auto base = parse_scenario(spec.text, spec.label, ignored)) {
+      dir = std::filesystem::path("larder-out") / base->name;
+    }
+  }
+  const std::vector<std::string> names = {"sweep.csv", "sensitivity.csv", "sweep.html"};
+  const auto claim = [&] {
+    check_output_folder(dir, names, {{args.common.scenario, "the scenario"}});
+    claim_output_folder(dir, args.force);
+  };
+  const bool claimed_early = !dir.empty();
+  if (claimed_early) claim();
   const std::vector<SweepPoint> points = run_sweep(spec, [&](int k, int n) {
     if (!args.common.quiet) fmt::print(stderr, "sweep: point {} of {}\n", k + 1, n);
   });
 
   const RunInfo& info = points.front().result.info;
-  const std::filesystem::path dir = args.out.empty()
-                                        ? std::filesystem::path("larder-out") / info.scenario_name
-                                        : std::filesystem::path(args.out);
-  claim_output_folder(dir, args.force);
+  if (!claimed_early) {
+    dir = std::filesystem::path("larder-out") / info.scenario_name;
+    claim();
+  }
   if (!spec.varies.empty()) {
-    write_file_atomically(dir / "sensitivity.csv", sensitivity_csv(points));
     const RunResult& base = points.front().result;
     const std::vector<TornadoRow> rows = tornado(spec.varies, points);
-    write_file_atomically(dir / "sweep.html", sensitivity_html(points, rows));
+    publish_result_set(dir,
+                       {{"sensitivity.csv", sensitivity_csv(points)},
+                        {"sweep.html", sensitivity_html(points, rows)}},
+                       {"sweep.csv"});
     fmt::print("sensitivity of {} ({} replications per point, seed {})\n", spec.label,
                info.replications, info.seed);
     fmt::print("{}", tornado_table(rows, base.policies[static_cast<size_t>(base.baseline)]));
@@ -93,10 +100,11 @@ int sweep_command(const SweepArgs& args) {
     }
     return 0;
   }
-  write_file_atomically(dir / "sweep.csv", sweep_csv(spec.settings, points));
-
   const FrontierMarks marks = sweep_frontiers(points);
-  write_file_atomically(dir / "sweep.html", sweep_html(spec.settings, points, marks));
+  publish_result_set(dir,
+                     {{"sweep.csv", sweep_csv(spec.settings, points)},
+                      {"sweep.html", sweep_html(spec.settings, points, marks)}},
+                     {"sensitivity.csv"});
   fmt::print("sweep of {} ({} points, {} replications each, seed {})\n", spec.label, points.size(),
              info.replications, info.seed);
   fmt::print(

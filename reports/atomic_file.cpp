@@ -2,6 +2,7 @@
 
 #include <fcntl.h>
 #include <fmt/format.h>
+#include <signal.h>
 #include <unistd.h>
 
 #include <atomic>
@@ -75,10 +76,61 @@ void sync_folder(const fs::path& dir) {
   ::close(fd);
 }
 
+/// Refuses to rename over anything but an ordinary file (a device, a FIFO, a link, a folder):
+/// the commands check their outputs before working (output_path.hpp); this is the last guard.
+void check_replaceable(const fs::path& path) {
+  std::error_code ec;
+  const fs::file_status s = fs::symlink_status(path, ec);
+  if (!ec && fs::exists(s) && !fs::is_regular_file(s)) {
+    fail(path, "it exists and is not an ordinary file; larder does not replace it");
+  }
+}
+
+/// The process id in "<pid>-..." at the start of `rest`, or -1.
+long leading_pid(std::string_view rest) {
+  long pid = 0;
+  size_t k = 0;
+  while (k < rest.size() && k < 10 && rest[k] >= '0' && rest[k] <= '9') {
+    pid = pid * 10 + (rest[k] - '0');
+    ++k;
+  }
+  return k == 0 || k >= rest.size() || rest[k] != '-' ? -1 : pid;
+}
+
+bool process_gone(long pid) {
+  if (pid <= 0 || pid > 0x7fffffff) return false;
+  return ::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH;
+}
+
 }  // namespace
+
+bool is_stale_temporary(std::string_view name, std::string_view stem) {
+  if (!name.starts_with('.')) return false;
+  for (const std::string_view mark : {std::string_view(".tmp-"), std::string_view(".staging-")}) {
+    const size_t at = name.rfind(mark);
+    if (at == std::string_view::npos || at < 1) continue;
+    if (!stem.empty() && name.substr(1, at - 1) != stem) continue;
+    if (process_gone(leading_pid(name.substr(at + mark.size())))) return true;
+  }
+  return false;
+}
+
+void remove_stale_temporaries(const fs::path& dir, std::string_view stem) {
+  std::error_code ec;
+  for (const auto& entry : fs::directory_iterator(dir.empty() ? fs::path(".") : dir, ec)) {
+    const std::string name = entry.path().filename().string();
+    std::error_code ignored;
+    if (name.find(".tmp-") != std::string::npos && is_stale_temporary(name, stem) &&
+        !entry.is_directory(ignored)) {
+      fs::remove(entry.path(), ignored);
+    }
+  }
+}
 
 void write_file_atomically(const fs::path& path, std::string_view content) {
   if (path.filename().empty()) fail(path, "the path names no file");
+  check_replaceable(path);
+  remove_stale_temporaries(path.parent_path(), path.filename().string());
   const fs::path tmp_path = temporary_name(path);
   const int fd = ::open(tmp_path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
   if (fd < 0) {
@@ -105,6 +157,7 @@ void write_file_atomically(const fs::path& path, std::string_view content) {
     fail(path, fmt::format("closing {} failed: {}", tmp_path.string(), errno_text(err)));
   }
 
+  check_replaceable(path);
   std::error_code ec;
   fs::rename(tmp_path, path, ec);
   if (ec) {
@@ -130,6 +183,8 @@ void ensure_directory(const fs::path& dir) {
 
 AtomicFileWriter::AtomicFileWriter(fs::path path) : path_(std::move(path)) {
   if (path_.filename().empty()) fail(path_, "the path names no file");
+  check_replaceable(path_);
+  remove_stale_temporaries(path_.parent_path(), path_.filename().string());
   tmp_ = temporary_name(path_);
   fd_ = ::open(tmp_.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
   if (fd_ < 0) {
@@ -176,6 +231,7 @@ void AtomicFileWriter::commit() {
   const int rc = ::close(fd_);
   fd_ = -1;
   if (rc != 0) fail(path_, fmt::format("closing {} failed: {}", tmp_.string(), errno_text(errno)));
+  check_replaceable(path_);
   std::error_code ec;
   fs::rename(tmp_, path_, ec);
   if (ec) {

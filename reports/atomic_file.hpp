@@ -14,6 +14,15 @@ namespace larder {
 /// file is removed and std::runtime_error names the path and the reason.
 void write_file_atomically(const std::filesystem::path& path, std::string_view content);
 
+/// Whether `name` is a temporary file of a larder writer (`.<file>.tmp-<pid>-<n>` or a staging
+/// folder `.<folder>.staging-<pid>-...`) whose process no longer runs: what a crash (kill -9,
+/// power loss) left behind. `stem` non-empty: only temporaries of that final name.
+bool is_stale_temporary(std::string_view name, std::string_view stem = {});
+
+/// Removes the stale temporary files (not folders) in `dir` (see is_stale_temporary); errors are
+/// ignored, as the files are only clutter.
+void remove_stale_temporaries(const std::filesystem::path& dir, std::string_view stem = {});
+
 /// Creates `dir` and any missing parents; does nothing if it is already a folder. Throws
 /// std::runtime_error naming the path and the reason if it cannot be created or is not a folder.
 void ensure_directory(const std::filesystem::path& dir);

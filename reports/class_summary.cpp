@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -10,10 +11,17 @@
 #include <sstream>
 
 #include "reports/csv.hpp"
+#include "reports/json_integer.hpp"
 #include "reports/number_format.hpp"
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/diagnostics.hpp"
 
 namespace larder {
+
+namespace {
+/// The largest scorecard.json read (one is a few kilobytes).
+constexpr std::size_t kMaxScorecardBytes = std::size_t{16} << 20;
+}  // namespace
 
 namespace {
 
@@ -57,26 +65,42 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
   Diagnostics diag;
   std::vector<ClassRow> references;
   std::uint64_t first_seed = 0;
+  std::vector<std::filesystem::path> seen;  // per input, its scorecard's canonical path
   for (size_t k = 0; k < inputs.size(); ++k) {
     std::filesystem::path file(inputs[k]);
     if (std::filesystem::is_directory(file)) file /= "scorecard.json";
-    std::ifstream in(file);
-    if (!in) {
-      diag.error({file.string(), 0, 0}, "cannot read the scorecard",
+    // The same scorecard twice (a folder and its file, or a repeated argument) would count a
+    // trainee twice.
+    std::error_code ec;
+    std::filesystem::path canonical = std::filesystem::weakly_canonical(file, ec);
+    if (ec) canonical = file;
+    if (const auto twice = std::find(seen.begin(), seen.end(), canonical); twice != seen.end()) {
+      diag.error({file.string(), 0, 0},
+                 fmt::format("this scorecard is given more than once (first as {})",
+                             inputs[static_cast<size_t>(twice - seen.begin())]),
+                 "give each trainee's folder once");
+      seen.push_back({});
+      continue;
+    }
+    seen.push_back(canonical);
+    const BoundedText in = read_bounded(file.string(), kMaxScorecardBytes);
+    if (!in.ok()) {
+      diag.error({file.string(), 0, 0},
+                 in.too_large ? fmt::format("larger than the limit of {} for a scorecard",
+                                            size_in_words(kMaxScorecardBytes))
+                              : fmt::format("cannot read the scorecard: {}", in.problem),
                  "give folders written by larder drill, or their scorecard.json files");
       continue;
     }
-    std::stringstream text;
-    text << in.rdbuf();
     try {
-      const json card = json::parse(text.str());
+      const json card = json::parse(in.text);
       if (card.value("format", "") != "larder-drill-scorecard") {
         diag.error({file.string(), 1, 1}, "not a drill scorecard (scorecard.json of larder drill)");
         continue;
       }
       const std::string scenario = card.at("scenario").get<std::string>();
       const std::string store = card.at("store").get<std::string>();
-      const int days = card.at("days").get<int>();
+      const int days = json_int(card.at("days"), "days", 0, 1'000'000'000);
       const json& policies = card.at("policies");
       const std::string house = policies.at(1).at("name").get<std::string>();
       if (k == 0) {
@@ -85,7 +109,7 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
         s.days = days;
         s.currency = card.value("currency", "");
         s.house = house;
-        first_seed = card.at("seed").get<std::uint64_t>();
+        first_seed = json_uint64(card.at("seed"), "seed");
       } else if (scenario != s.scenario || store != s.store || days != s.days || house != s.house) {
         diag.error({file.string(), 1, 1},
                    fmt::format("another exercise: scenario {}, store {}, {} days, house rule {} "
@@ -94,7 +118,7 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
                    "a class view compares the scorecards of one exercise");
         continue;
       }
-      if (card.at("seed").get<std::uint64_t>() != first_seed) s.same_seed = false;
+      if (json_uint64(card.at("seed"), "seed") != first_seed) s.same_seed = false;
       const double house_profit = num(policies.at(1).at("metrics").at("profit"));
       s.rows.push_back(row_of(policies.at(0), card, file.string(), house_profit));
       if (k == 0) {
@@ -102,8 +126,16 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
           references.push_back(row_of(policies.at(p), card, file.string(), house_profit));
         }
       }
-    } catch (const json::exception& e) {
-      diag.error({file.string(), 1, 1}, fmt::format("not a readable scorecard: {}", e.what()));
+    } catch (const std::exception& e) {
+      // nlohmann's messages start with "[json.exception.type_error.306] "; say it plainly.
+      std::string why = e.what();
+      if (why.starts_with("[json.exception.")) {
+        const size_t close = why.find("] ");
+        if (close != std::string::npos) why = why.substr(close + 2);
+      }
+      diag.error({file.string(), 1, 1},
+                 fmt::format("not a scorecard larder can read (damaged or edited?): {}", why),
+                 "give folders written by larder drill, or their scorecard.json files");
     }
   }
   if (!diag.ok()) throw InputError(diag);

@@ -1,6 +1,7 @@
 #include "reports/output_folder.hpp"
 
-#include "reports/atomic_file.hpp"
+#include <algorithm>
+
 #include "reports/breakdown_csv.hpp"
 #include "reports/metrics_csv.hpp"
 #include "reports/pairs_csv.hpp"
@@ -10,22 +11,32 @@
 
 namespace larder {
 
-void write_run_outputs(const RunResult& result, const std::filesystem::path& dir) {
-  ensure_directory(dir);
-  write_file_atomically(dir / "summary.json", summary_json_text(result));
-  write_file_atomically(dir / "metrics.csv", metrics_csv(result));
-  write_file_atomically(dir / "replications.csv", replications_csv(result));
-  write_file_atomically(dir / "breakdown.csv", breakdown_csv(result));
-  // Files only some runs have are removed otherwise, so none is left over from an earlier run.
-  const auto optional_file = [&](const char* name, const std::string& text) {
-    if (!text.empty()) {
-      write_file_atomically(dir / name, text);
-    } else {
-      std::filesystem::remove(dir / name);
-    }
-  };
-  optional_file("pairs.csv", pairs_csv(result));
-  optional_file("substitution.csv", substitution_csv(result));
+std::vector<std::string> run_output_names() {
+  return {"summary.json", "metrics.csv",      "replications.csv", "breakdown.csv",
+          "pairs.csv",    "substitution.csv", "report.html"};
+}
+
+void write_run_outputs(const RunResult& result, const std::filesystem::path& dir,
+                       std::vector<ResultFile> extra) {
+  std::vector<ResultFile> files = {{"summary.json", summary_json_text(result)},
+                                   {"metrics.csv", metrics_csv(result)},
+                                   {"replications.csv", replications_csv(result)},
+                                   {"breakdown.csv", breakdown_csv(result)}};
+  // Files only some runs have are left out otherwise, so none is left over from an earlier run.
+  if (std::string text = pairs_csv(result); !text.empty()) {
+    files.push_back({"pairs.csv", std::move(text)});
+  }
+  if (std::string text = substitution_csv(result); !text.empty()) {
+    files.push_back({"substitution.csv", std::move(text)});
+  }
+  for (ResultFile& f : extra) files.push_back(std::move(f));
+  std::vector<std::string> retired;
+  for (const std::string& name : run_output_names()) {
+    const bool written = std::any_of(files.begin(), files.end(),
+                                     [&](const ResultFile& f) { return f.name == name; });
+    if (!written) retired.push_back(name);
+  }
+  publish_result_set(dir, files, retired);
 }
 
 }  // namespace larder

@@ -21,8 +21,8 @@ TEST_CASE("write_run_outputs creates the folder and writes its files", "[reports
   larder::RunResult r = larder::test::sample_run();
   larder::write_run_outputs(r, dir);
   CHECK(larder::test::folder_entries(dir) ==
-        std::vector<std::string>{"breakdown.csv", "metrics.csv", "pairs.csv", "replications.csv",
-                                 "summary.json"});
+        std::vector<std::string>{".larder-run", "breakdown.csv", "metrics.csv", "pairs.csv",
+                                 "replications.csv", "summary.json"});
   CHECK(read_all(dir / "breakdown.csv") == larder::breakdown_csv(r));
   CHECK(read_all(dir / "summary.json") == larder::summary_json_text(r));
   CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
@@ -34,7 +34,7 @@ TEST_CASE("write_run_outputs creates the folder and writes its files", "[reports
   r.policies.resize(1);
   r.values.resize(1);
   larder::write_run_outputs(r, dir);
-  CHECK(larder::test::folder_entries(dir).size() == 4);
+  CHECK(larder::test::folder_entries(dir).size() == 5);  // with the record .larder-run
   CHECK(read_all(dir / "metrics.csv") == larder::metrics_csv(r));
   CHECK(larder::test::parse_csv(read_all(dir / "replications.csv")).size() == 1 + 5);
 }

@@ -5,12 +5,16 @@
 #include <stdexcept>
 
 #include "reports/exact_json_number.hpp"
+#include "reports/json_integer.hpp"
 
 namespace larder {
 
 namespace {
 
 using nlohmann::json;
+
+/// The largest count (replications, days, stores, items, threads) a run file may hold.
+constexpr int kMaxCount = 1'000'000'000;
 
 // ---- writing ----
 
@@ -98,16 +102,16 @@ RunInfo info_from(const json& j) {
   RunInfo info;
   info.scenario_name = field(j, "scenario").get<std::string>();
   info.scenario_file = field(j, "scenario_file").get<std::string>();
-  info.seed = field(j, "seed").get<std::uint64_t>();
-  info.replications = field(j, "replications").get<int>();
-  info.horizon_days = field(j, "horizon_days").get<int>();
-  info.warmup_days = field(j, "warmup_days").get<int>();
-  info.stores = field(j, "stores").get<int>();
-  info.items = field(j, "items").get<int>();
+  info.seed = json_uint64(field(j, "seed"), "seed");
+  info.replications = json_int(field(j, "replications"), "replications", 0, kMaxCount);
+  info.horizon_days = json_int(field(j, "horizon_days"), "horizon_days", 0, kMaxCount);
+  info.warmup_days = json_int(field(j, "warmup_days"), "warmup_days", 0, kMaxCount);
+  info.stores = json_int(field(j, "stores"), "stores", 0, kMaxCount);
+  info.items = json_int(field(j, "items"), "items", 0, kMaxCount);
   info.currency = field(j, "currency").get<std::string>();
   info.command = field(j, "command").get<std::string>();
   info.version = field(j, "larder_version").get<std::string>();
-  info.threads = field(j, "threads").get<int>();
+  info.threads = json_int(field(j, "threads"), "threads", 0, kMaxCount);
   info.seconds = exact_json_number_value(field(j, "seconds"));
   return info;
 }
@@ -148,7 +152,8 @@ PolicyBreakdown breakdown_from(const json& j, size_t reps, const std::vector<Met
     const json& pair = array_of(k, 2, "breakdown key");
     b.keys.push_back({pair[0].get<std::string>(), pair[1].get<std::string>()});
   }
-  b.first_group = field(j, "first_group").get<std::size_t>();
+  b.first_group = static_cast<std::size_t>(json_integer(field(j, "first_group"), "first_group", 0,
+                                                        static_cast<std::int64_t>(b.keys.size())));
   const std::string what = fmt::format("breakdown of {}", policy);
   for (const json& r : array_of(field(j, "values"), reps, what)) {
     b.values.push_back(rows_from(r, b.keys.size(), order, what));
@@ -192,10 +197,9 @@ RunResult run_result_from_json(const json& j) {
   RunResult r;
   r.info = info_from(field(j, "info"));
   r.policies = field(j, "policies").get<std::vector<std::string>>();
-  r.baseline = field(j, "baseline").get<int>();
-  if (r.baseline < 0 || r.baseline >= static_cast<int>(r.policies.size())) {
-    throw std::runtime_error(fmt::format("baseline {} is not a policy index", r.baseline));
-  }
+  if (r.policies.empty()) throw std::runtime_error("the run has no policies");
+  r.baseline = json_int(field(j, "baseline"), "baseline (a policy index)", 0,
+                        static_cast<int>(r.policies.size()) - 1);
   for (const json& m : array_of(field(j, "metrics"), SIZE_MAX, "metrics")) {
     r.metrics.push_back(metric_from_name(m.get<std::string>()));
   }

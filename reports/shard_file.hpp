@@ -4,6 +4,7 @@
 // and every per-replication number of its RunResult, doubles exact (run_result_json.hpp).
 // Compact JSON: the file is for larder, not for reading, and its rows can be many.
 
+#include <cstddef>
 #include <filesystem>
 #include <string>
 #include <string_view>
@@ -12,6 +13,9 @@
 #include "sim/runner/shard_merge.hpp"
 
 namespace larder {
+
+/// The largest shard file `merge` reads (about 2 million replications of 10 policies).
+inline constexpr std::size_t kMaxShardFileBytes = std::size_t{1} << 30;
 
 /// "shard-K-of-N.json".
 std::string shard_file_name(ShardSpec s);

@@ -118,6 +118,55 @@ TEST_CASE("larder check validates and summarises", "[cli]") {
   CHECK(o.out.find("estimate") != std::string::npos);
 }
 
+TEST_CASE(
+    "the options -r and --seed are read by the scenario keys' rules; nothing is created on refusal",
+    "[cli]") {
+  // Issue 23: --seed -1, 2^64 and 1e26 became 18446744073709551615; -r 1e3 said "not in range".
+  const fs::path file = write_scenario("options.yaml", kSmall);
+  const fs::path out = scratch("options-out");
+  for (const char* seed : {"-1", "18446744073709551616", "1e26", "12x", "+5"}) {
+    const Outcome o =
+        larder(fmt::format("run {} --quiet --seed {} --out {}", file.string(), seed, out.string()));
+    INFO(seed << ": " << o.err);
+    CHECK(o.code == 2);
+    CHECK(o.err.find(fmt::format("--seed: error: --seed must be a whole number in [0, "
+                                 "18446744073709551615] (got {})",
+                                 seed)) == 0);
+    CHECK(!fs::exists(out));
+  }
+  // The largest seed is accepted, as in the YAML.
+  const Outcome top =
+      larder(fmt::format("check {} --seed 18446744073709551615 --format json", file.string()));
+  CHECK(top.code == 0);
+
+  // -r 1e3 is 1000, as `replications: 1e3` is in a scenario.
+  const Outcome thousand = larder(fmt::format("check {} -r 1e3", file.string()));
+  INFO(thousand.err);
+  CHECK(thousand.code == 0);
+  CHECK(thousand.out.find("1000 replications") != std::string::npos);
+  const Outcome zero = larder(fmt::format("run {} -r 0 --out {}", file.string(), out.string()));
+  CHECK(zero.code == 2);
+  CHECK(zero.err.find("--replications: error: --replications must be in [1, ") == 0);
+  const Outcome half = larder(fmt::format("run {} -r 2.5 --out {}", file.string(), out.string()));
+  CHECK(half.code == 2);
+  CHECK(half.err.find("--replications must be a whole number (got 2.5)") != std::string::npos);
+  const Outcome word = larder(fmt::format("run {} -r many --out {}", file.string(), out.string()));
+  CHECK(word.code == 2);
+  CHECK(word.err.find("--replications must be a number (got many)") != std::string::npos);
+  CHECK(!fs::exists(out));
+
+  // Memory sizes with units, and small limits shown in their own unit.
+  const Outcome tiny =
+      larder(fmt::format("run {} --max-memory 1K --out {}", file.string(), out.string()));
+  CHECK(tiny.code == 2);
+  CHECK(tiny.err.find("more than the limit of 1 KiB") != std::string::npos);
+  const Outcome bad =
+      larder(fmt::format("run {} --max-memory 1e30T --out {}", file.string(), out.string()));
+  CHECK(bad.code == 2);
+  CHECK(bad.err.find("--max-memory 1e30T: expected a size") != std::string::npos);
+  CHECK(!fs::exists(out));
+}
+
 TEST_CASE("larder check describes a drill exercise for its trainer", "[cli][drill]") {
   // The expected lines are read off scenarios/drill-bakery.yaml's drill: section.
   const std::string file =

@@ -318,6 +318,73 @@ TEST_CASE("larder drill --decisions scores a file; --summary combines scorecards
   CHECK_FALSE(fs::exists(dir.path() / "bad" / "scorecard.json"));
 }
 
+TEST_CASE("a drill folder with saved decisions is not written over without --force", "[drill]") {
+  // Issue 23: a new session in a finished trainee's folder, quit at once, replaced its
+  // decisions.csv and left the old scorecard beside them.
+  const test::ScratchDir dir("drill-keep");
+  const fs::path scenario = dir.path() / "ex.yaml";
+  std::ofstream(scenario) << kFixed + kDrill;
+  DrillGame game(test::scenario_from(kFixed + kDrill));
+  const fs::path ann = dir.path() / "ann.csv";
+  std::ofstream(ann) << decisions_csv(game, DrillDecisions(game.turns().size(), {5, 13}));
+  const fs::path out = dir.path() / "ann";
+  REQUIRE(larder(fmt::format("drill {} --decisions {} --out {} --quiet", scenario.string(),
+                             ann.string(), out.string()),
+                 dir.path())
+              .code == 0);
+  const std::string decisions = slurp(out / "decisions.csv");
+  const std::string card = slurp(out / "scorecard.json");
+
+  // The class view: the same folder three times, and a damaged scorecard, are refused plainly.
+  const Outcome thrice =
+      larder(fmt::format("drill --summary {0} {0} {1}/scorecard.json --out {2}", out.string(),
+                         out.string(), (dir.path() / "class").string()),
+             dir.path());
+  CHECK(thrice.code == 2);
+  CHECK(thrice.err.find("this scorecard is given more than once (first as " + out.string() + ")") !=
+        std::string::npos);
+  const fs::path damaged = dir.path() / "damaged.json";
+  std::ofstream(damaged) << R"({"format": "larder-drill-scorecard", "scenario": 5})";
+  const Outcome broken = larder(
+      fmt::format("drill --summary {} --out {}", damaged.string(), (dir.path() / "class").string()),
+      dir.path());
+  CHECK(broken.code == 2);
+  CHECK(broken.err.find("not a scorecard larder can read (damaged or edited?)") !=
+        std::string::npos);
+  CHECK(broken.err.find("[json.exception") == std::string::npos);
+
+  const Outcome again =
+      larder(fmt::format("drill {} --out {} --quiet < /dev/null", scenario.string(), out.string()),
+             dir.path());
+  INFO(again.err);
+  CHECK(again.code == 2);
+  CHECK(again.err.find("this folder holds a drill's saved decisions") != std::string::npos);
+  CHECK(again.err.find("--force") != std::string::npos);
+  CHECK(slurp(out / "decisions.csv") == decisions);
+  CHECK(slurp(out / "scorecard.json") == card);
+
+  // Its own decisions.csv given back as --decisions into the same folder: an output that is an
+  // input of the same command.
+  const Outcome self =
+      larder(fmt::format("drill {} --decisions {} --out {} --force --quiet", scenario.string(),
+                         (out / "decisions.csv").string(), out.string()),
+             dir.path());
+  CHECK(self.code == 2);
+  CHECK(self.err.find("larder would overwrite its own input") != std::string::npos);
+
+  // With --force a session that stops at once leaves its (empty) decisions and no scorecard of
+  // the earlier session.
+  const Outcome forced = larder(
+      fmt::format("drill {} --out {} --force --quiet < /dev/null", scenario.string(), out.string()),
+      dir.path());
+  INFO(forced.err);
+  CHECK(forced.code == 0);
+  CHECK(slurp(out / "decisions.csv") != decisions);
+  CHECK_FALSE(fs::exists(out / "scorecard.json"));
+  CHECK_FALSE(fs::exists(out / "scorecard.txt"));
+  CHECK_FALSE(fs::exists(out / "scorecard.html"));
+}
+
 /// Runs tmux on its own server socket (never the user's).
 test::ProcessResult tmux(const std::string& socket, const std::string& args) {
   return test::run_command_line(fmt::format("tmux -f /dev/null -L {} {} 2>&1", socket, args));

@@ -12,6 +12,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "sim/scenario/iso_date.hpp"
 #include "tests/cli_runner.test.hpp"
 
 namespace larder {
@@ -138,6 +139,118 @@ TEST_CASE("larder fit: bad input exits 2 with file:line messages", "[fit]") {
   Outcome o =
       larder(fmt::format("fit {} --family gamma --out {}", short_file.string(), out.string()));
   CHECK(o.code == 2);
+}
+
+/// `text` with every occurrence of `from` replaced by `to`.
+std::string replace_all(std::string text, const std::string& from, const std::string& to) {
+  for (size_t at = text.find(from); at != std::string::npos; at = text.find(from, at + to.size()))
+    text.replace(at, from.size(), to);
+  return text;
+}
+
+TEST_CASE("hostile histories through fit: refused clearly, or written so that check loads them",
+          "[fit]") {
+  // Issue 23: fit wrote scenarios that were wrong (an id setting its own size) or unreadable.
+  const fs::path sc = write_text("hostile.yaml", kScenario);
+  const fs::path hist = scratch("hostile-h.csv");
+  REQUIRE(larder(fmt::format("history {} --policy habit --out {} -q", sc.string(), hist.string()))
+              .code == 0);
+  const std::string good = slurp(hist);
+  const fs::path out = scratch("hostile-out/fitted.yaml");
+  const auto fit = [&](const std::string& history, const std::string& items = "") {
+    const fs::path h = write_text("hostile-variant.csv", history);
+    std::string extra;
+    if (!items.empty()) extra = " --items " + write_text("hostile-items.csv", items).string();
+    fs::remove_all(out.parent_path());
+    return larder(fmt::format("fit {}{} --out {} -q", h.string(), extra, out.string()));
+  };
+
+  SECTION("ids a scenario cannot hold are refused by name, nothing written") {
+    const Outcome injected = fit(replace_all(good, ",quay,", ",\"q, size: 1000 } #\","));
+    INFO(injected.err);
+    CHECK(injected.code == 2);
+    CHECK(injected.err.find("store id 'q, size: 1000 } #' must use only letters") !=
+          std::string::npos);
+    CHECK(injected.err.find("a scenario cannot hold it") != std::string::npos);
+    CHECK(!fs::exists(out));
+    const Outcome accented = fit(replace_all(good, ",pie,",
+                                             ",p\xc3\xaf"
+                                             "e,"));
+    CHECK(accented.code == 2);
+    CHECK(accented.err.find("item id 'p\\xc3\\xafe'") != std::string::npos);
+    const Outcome nul = fit(replace_all(good, ",pie,", std::string(",p\0e,", 5)));
+    CHECK(nul.code == 2);
+    CHECK(!fs::exists(out));
+  }
+  SECTION("history --items-out refuses an attribute value the item file cannot hold") {
+    std::string text = kScenario;
+    text.replace(text.find("type: bread"), 11, "type: \"two\\nlines\"");
+    const fs::path multi = write_text("multi-line.yaml", text);
+    const fs::path items = scratch("multi-items.csv");
+    fs::remove(items);
+    const Outcome h =
+        larder(fmt::format("history {} --policy habit --out {} --items-out {} -q", multi.string(),
+                           scratch("multi-h.csv").string(), items.string()));
+    INFO(h.err);
+    CHECK(h.code == 2);
+    CHECK(h.err.find("item 'roll': attribute type holds a line break") != std::string::npos);
+    CHECK(!fs::exists(items));
+  }
+  SECTION("item file values beyond the loader's limits are refused") {
+    const Outcome priced = fit(good,
+                               "item,price,unit_cost,shelf_life_days\nroll,1e12,0.4,1\n"
+                               "pie,4,1.5,1\n");
+    INFO(priced.err);
+    CHECK(priced.code == 2);
+    CHECK(priced.err.find("item 'roll': price 1000000000000 is above the scenario limit of "
+                          "1000000000") != std::string::npos);
+    const Outcome life = fit(good,
+                             "item,price,unit_cost,shelf_life_days\nroll,1.5,0.4,400\n"
+                             "pie,4,1.5,1\n");
+    CHECK(life.code == 2);
+    CHECK(life.err.find("shelf_life_days 400 is above the scenario limit of 365") !=
+          std::string::npos);
+    const Outcome colon = fit(good,
+                              "item,price,unit_cost,shelf_life_days,ty:pe\nroll,1.5,0.4,1,x\n"
+                              "pie,4,1.5,1,y\n");
+    CHECK(colon.code == 2);
+    CHECK(colon.err.find("attribute name 'ty:pe'") != std::string::npos);
+    CHECK(!fs::exists(out));
+  }
+  SECTION("odd but valid text and a history ending on 9999-12-31 load") {
+    // Attribute values with quotes, a backslash, a hash and non-ASCII letters: written quoted.
+    const Outcome quoted = fit(good,
+                               "item,price,unit_cost,shelf_life_days,note\n"
+                               "roll,1.5,0.4,1,\"say \"\"hi\"\" \\ # caf\xc3\xa9: {x}\"\n"
+                               "pie,4,1.5,1,plain\n");
+    INFO(quoted.err);
+    REQUIRE(quoted.code == 0);
+    Outcome c = larder(fmt::format("check {}", out.string()));
+    INFO(c.err << slurp(out));
+    CHECK(c.code == 0);
+    CHECK(slurp(out).find("note: \"say \\\"hi\\\" \\\\ # caf\xc3\xa9: {x}\"") != std::string::npos);
+
+    // Every date moved so that the last is 9999-12-31 (the horizon after it has no dates).
+    std::istringstream lines(good);
+    std::string shifted, line;
+    std::getline(lines, line);
+    shifted += line + "\n";
+    const CivilDate last_before = add_days(*parse_iso_date("2027-02-01"), 139);
+    const int offset =
+        static_cast<int>(day_number(*parse_iso_date("9999-12-31")) - day_number(last_before));
+    while (std::getline(lines, line)) {
+      const auto date = parse_iso_date(line.substr(0, 10));
+      REQUIRE(date);
+      shifted += to_iso(add_days(*date, offset)) + line.substr(10) + "\n";
+    }
+    const Outcome late = fit(shifted);
+    INFO(late.err);
+    REQUIRE(late.code == 0);
+    CHECK(slurp(out).find("start_weekday") != std::string::npos);
+    c = larder(fmt::format("check {}", out.string()));
+    INFO(c.err);
+    CHECK(c.code == 0);
+  }
 }
 
 }  // namespace

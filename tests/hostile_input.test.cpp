@@ -3,6 +3,8 @@
 // command must finish in seconds) or an unreadable message.
 
 #include <chrono>
+#include <cstdlib>
+#include <fstream>
 #include <pcg_random.hpp>
 
 #include "tests/cli_runner.test.hpp"
@@ -229,6 +231,130 @@ TEST_CASE("a run that would need more memory than allowed is refused before it s
   CHECK(huge.err.find("this run would need at least") != std::string::npos);
   CHECK(seconds < 30.0);
   CHECK(!test::fs::exists(out));
+}
+
+// --- issue 23: every reader bounded before it allocates -----------------------------------
+
+TEST_CASE("readers fed a device or an endless pipe stop at their cap", "[hostile]") {
+  // /dev/zero never ends and has no line ends: each reader must stop at its cap, exit 2 and
+  // name the file, never read on (the test would hang) nor allocate without bound.
+  const Outcome scenario = test::run_larder(kArea, "check /dev/zero");
+  INFO(scenario.err);
+  CHECK(scenario.code == 2);
+  CHECK(scenario.err.find("/dev/zero: error: the file is too large for a scenario: more than "
+                          "the limit of 16 MiB") == 0);
+
+  // A pipe that never ends: `yes` stops when larder closes its end.
+  const test::fs::path err = test::scratch_path(kArea, "pipe-err.txt");
+  const int status = std::system(
+      fmt::format("yes 'a: 1' | {} check /dev/stdin 2>{}", LARDER_BINARY, err.string()).c_str());
+  CHECK(WIFEXITED(status));
+  CHECK(WEXITSTATUS(status) == 2);
+  CHECK(test::slurp(err).find("too large for a scenario") != std::string::npos);
+
+  const auto out = test::scratch_path(kArea, "zero-fit.yaml");
+  const Outcome fit = test::run_larder(kArea, fmt::format("fit /dev/zero --out {}", out.string()));
+  INFO(fit.err);
+  CHECK(fit.code == 2);
+  CHECK(fit.err.find("/dev/zero:1:1: error: the header is longer than") == 0);
+  CHECK(!test::fs::exists(out));
+
+  const auto history = test::scratch_path(kArea, "h.csv");
+  test::write_text(history, "date,store,item,delivered,sold,leftover,sold_out\n");
+  const Outcome items = test::run_larder(
+      kArea, fmt::format("fit {} --items /dev/zero --out {}", history.string(), out.string()));
+  CHECK(items.code == 2);
+  CHECK(items.err.find("/dev/zero:1:1: error: the header is too long") == 0);
+
+  const Outcome merge = test::run_larder(
+      kArea, fmt::format("merge /dev/zero --out {}", test::scratch_path(kArea, "m").string()));
+  CHECK(merge.code == 2);
+  CHECK(merge.err.find("not an ordinary file") != std::string::npos);
+
+  // A replay policy reading /dev/zero.
+  const Outcome replay =
+      check_text("replay-zero.yaml", edited("quantity: { rule: fixed, quantity: 35 }",
+                                            "quantity: { rule: replay, file: /dev/zero }"));
+  INFO(replay.err);
+  CHECK(replay.code == 2);
+  CHECK(replay.err.find("line is longer than") != std::string::npos);
+
+  const auto drill_out = test::scratch_path(kArea, "d");
+  const Outcome drill = test::run_larder(
+      kArea, fmt::format("drill {}/scenarios/drill-bakery.yaml --decisions /dev/zero --out {}",
+                         LARDER_SOURCE_DIR, drill_out.string()));
+  INFO(drill.err);
+  CHECK(drill.code == 2);
+  CHECK(drill.err.find("/dev/zero: error: the decision file is larger than the limit of 16 MiB") ==
+        0);
+  CHECK(!test::fs::exists(drill_out));
+}
+
+TEST_CASE("a history or an order file with a 100 MB line is refused without holding it",
+          "[hostile]") {
+  // One line of 100 MB without an end, after a good header: cut at 1 MiB, and the reader stops
+  // after skipping 64 MiB of it.
+  const auto big = test::scratch_path(kArea, "long-line.csv");
+  {
+    std::ofstream f(big, std::ios::binary);
+    f << "date,store,item,delivered,sold,leftover,sold_out\n";
+    const std::string block(1 << 20, 'x');
+    for (int k = 0; k < 100; ++k) f << block;
+  }
+  const Outcome fit =
+      test::run_larder(kArea, fmt::format("fit {} --out {}", big.string(),
+                                          test::scratch_path(kArea, "long-fit.yaml").string()));
+  INFO(fit.err);
+  CHECK(fit.code == 2);
+  CHECK(fit.err.find(":2:1: error: line is longer than 1048576 bytes and goes on past") !=
+        std::string::npos);
+}
+
+// --- issue 23, item 9: messages that name the cause, warnings for likely mistakes ------------
+
+TEST_CASE("tabs, old Mac line ends, 1e400 and over-long names are named as the cause",
+          "[hostile]") {
+  require_input_error(check_text("tab.yaml", replaced(kValid, "  - name: fixed\n    forecast",
+                                                      "  - name: fixed\n\tforecast")),
+                      "tab.yaml", "is indented with a tab; YAML indents with spaces only");
+  std::string cr = kValid;
+  for (char& c : cr)
+    if (c == '\n') c = '\r';
+  require_input_error(check_text("cr.yaml", cr), "cr.yaml",
+                      "a carriage return without a line feed: the file has old Mac line ends");
+  require_input_error(check_text("huge-number.yaml", edited("base: 30", "base: 1e400")),
+                      "huge-number.yaml", "is too large for a number (got 1e400)");
+  std::string long_name = "name: ";
+  long_name.append(256, 'n');
+  require_input_error(check_text("long-name.yaml", edited("name: hostile", long_name)),
+                      "long-name.yaml", "name must be at most 200 characters (got 256)");
+}
+
+TEST_CASE("likely mistakes are warned about, and the scenario still runs", "[hostile]") {
+  std::string closures = "calendar:\n  events:\n";
+  for (int d = 7; d < 40; ++d) {
+    closures += fmt::format("    - {{ day: {}, closed: true, stores: [shut] }}\n", d);
+  }
+  const std::string text = replaced(
+      replaced(edited("demand: { base: 30 }",
+                      "demand: { base: 30, distribution: normal, cv: 38 }, "
+                      "pack_size: 12, shelf_capacity: 10"),
+               "stores: [ { id: corner } ]", "stores: [ { id: corner }, { id: shut } ]"),
+      "horizon: { days: 40, warmup_days: 7 }",
+      "horizon: { days: 40, warmup_days: 7 }\nlogistics: { lead_time_days: 40 }\n" + closures);
+  const Outcome o = check_text("mistakes.yaml", text);
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  const std::string file = (test::scratch_dir(kArea) / "mistakes.yaml").string();
+  CHECK(o.err.find(file + ": warning: items[0] 'roll': shelf_capacity 10 is below pack_size "
+                          "12: no pack fits on the shelf, so the item is never delivered") !=
+        std::string::npos);
+  CHECK(o.err.find("cv 38 is a spread of 38 times the mean; cv is a ratio (0.38 for 38%)") !=
+        std::string::npos);
+  CHECK(o.err.find("logistics.lead_time_days 40 is not shorter than the horizon of 40 days") !=
+        std::string::npos);
+  CHECK(o.err.find("stores[1] 'shut' is closed on every scored day") != std::string::npos);
+  CHECK(o.err.find("stores[0]") == std::string::npos);  // the open store: no warning
 }
 
 }  // namespace

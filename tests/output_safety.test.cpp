@@ -4,6 +4,7 @@
 // exit code 1 and no partial file under a final name.
 
 #include <sys/resource.h>
+#include <sys/stat.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
@@ -200,11 +201,204 @@ TEST_CASE("a folder without write permission is reported, nothing partial left",
   fs::permissions(out, fs::perms::owner_all);
   INFO(o.err);
   CHECK(o.code == 1);
-  CHECK(o.err.find(fmt::format("cannot write {}", (out / "summary.json").string())) !=
+  // Found when the folder is claimed, before simulating (issue 23).
+  CHECK(o.err.find(fmt::format("cannot write {}: creating a file there failed", out.string())) !=
         std::string::npos);
   CHECK(o.err.find("Permission denied") != std::string::npos);
   CHECK(test::slurp(out / "summary.json") == before);
   CHECK(temporaries(out).empty());
+}
+
+// --- issue 23: outputs that never replace what they point at ---------------------------------
+
+/// A FIFO and a symbolic link to a file outside the output folder, as a non-root user can
+/// make them (the device files of the report behave as the FIFO: not an ordinary file).
+struct Traps {
+  fs::path fifo;
+  fs::path target;  ///< outside any output folder
+  fs::path link;    ///< -> target
+};
+
+Traps make_traps(const std::string& name) {
+  Traps t;
+  t.fifo = test::scratch_path(kArea, name + "-fifo");
+  REQUIRE(::mkfifo(t.fifo.c_str(), 0600) == 0);
+  t.target = test::scratch_path(kArea, name + "-precious.txt");
+  test::write_text(t.target, "precious");
+  t.link = test::scratch_path(kArea, name + "-link");
+  fs::create_symlink(t.target, t.link);
+  return t;
+}
+
+void check_untouched(const Traps& t) {
+  CHECK(fs::is_fifo(fs::symlink_status(t.fifo)));
+  CHECK(fs::is_symlink(fs::symlink_status(t.link)));
+  CHECK(test::slurp(t.target) == "precious");
+}
+
+TEST_CASE("fit, history and run refuse a FIFO or a link as output, leaving it as it was",
+          "[output]") {
+  const Traps t = make_traps("traps");
+  const fs::path history = test::scratch_path(kArea, "h.csv");
+  test::write_text(history, "date,store,item,delivered,sold,leftover,sold_out\n");
+  for (const fs::path& out : {t.fifo, t.link}) {
+    INFO(out.string());
+    const Outcome fit =
+        test::run_larder(kArea, fmt::format("fit {} --out {}", history.string(), out.string()));
+    CHECK(fit.code == 2);
+    CHECK(fit.err.find(fmt::format("--out {} is a", out.string())) != std::string::npos);
+    const Outcome hist = test::run_larder(
+        kArea,
+        fmt::format("history {} --policy fixed --out {}", scenario_file().string(), out.string()));
+    CHECK(hist.code == 2);
+    const Outcome items = test::run_larder(
+        kArea,
+        fmt::format("history {} --policy fixed --out {} --items-out {}", scenario_file().string(),
+                    test::scratch_path(kArea, "fine.csv").string(), out.string()));
+    CHECK(items.code == 2);
+    CHECK(items.err.find("--items-out") != std::string::npos);
+    CHECK(!fs::exists(test::scratch_dir(kArea) / "fine.csv"));  // refused before any work
+  }
+  check_untouched(t);
+
+  // A result folder that is a link, or holds a FIFO under a result's name.
+  const fs::path elsewhere = test::scratch_path(kArea, "elsewhere");
+  fs::create_directories(elsewhere);
+  const fs::path linked = test::scratch_path(kArea, "linked-out");
+  fs::create_directory_symlink(elsewhere, linked);
+  const Outcome via_link = run_into(linked);
+  CHECK(via_link.code == 2);
+  CHECK(via_link.err.find("the output folder is a symbolic link") != std::string::npos);
+  CHECK(fs::is_symlink(fs::symlink_status(linked)));
+  CHECK(fs::is_empty(elsewhere));
+
+  const fs::path out = test::scratch_path(kArea, "with-fifo");
+  REQUIRE(run_into(out).code == 0);
+  fs::remove(out / "metrics.csv");
+  REQUIRE(::mkfifo((out / "metrics.csv").c_str(), 0600) == 0);
+  fs::create_symlink(t.target, out / "report.html.keep");
+  const Outcome fifo_inside = run_into(out);
+  CHECK(fifo_inside.code == 2);
+  CHECK(fifo_inside.err.find("metrics.csv in the output folder is a named pipe") !=
+        std::string::npos);
+  CHECK(fs::is_fifo(fs::symlink_status(out / "metrics.csv")));
+  check_untouched(t);
+}
+
+TEST_CASE("an output that is an input of the same command is refused", "[output]") {
+  const fs::path history = test::scratch_path(kArea, "self.csv");
+  const std::string text = "date,store,item,delivered,sold,leftover,sold_out\n";
+  test::write_text(history, text);
+  const Outcome fit =
+      test::run_larder(kArea, fmt::format("fit {} --out {}", history.string(), history.string()));
+  CHECK(fit.code == 2);
+  CHECK(fit.err.find("is the history") != std::string::npos);
+  CHECK(fit.err.find("larder would overwrite its own input") != std::string::npos);
+  CHECK(test::slurp(history) == text);
+
+  // The same file under another spelling.
+  const fs::path items = test::scratch_path(kArea, "items.csv");
+  test::write_text(items, "item,price,unit_cost,shelf_life_days\n");
+  const Outcome fit_items = test::run_larder(
+      kArea, fmt::format("fit {} --items {} --out {}/./{}", history.string(), items.string(),
+                         items.parent_path().string(), items.filename().string()));
+  CHECK(fit_items.code == 2);
+  CHECK(fit_items.err.find("is the --items file") != std::string::npos);
+
+  const fs::path sc = scenario_file();
+  const std::string before = test::slurp(sc);
+  const Outcome hist = test::run_larder(
+      kArea, fmt::format("history {} --policy fixed --out {}", sc.string(), sc.string()));
+  CHECK(hist.code == 2);
+  CHECK(hist.err.find("is the scenario") != std::string::npos);
+  CHECK(test::slurp(sc) == before);
+
+  const fs::path one = test::scratch_path(kArea, "one.csv");
+  const Outcome same =
+      test::run_larder(kArea, fmt::format("history {} --policy fixed --out {} --items-out {}",
+                                          sc.string(), one.string(), one.string()));
+  CHECK(same.code == 2);
+  CHECK(same.err.find("--out and --items-out name the same file") != std::string::npos);
+  CHECK(!fs::exists(one));
+
+  // A scenario kept in the output folder under a result's name.
+  const fs::path out = test::scratch_path(kArea, "self-out");
+  REQUIRE(run_into(out).code == 0);
+  test::write_text(out / "metrics.csv", kScenario);
+  const Outcome run = test::run_larder(
+      kArea, fmt::format("run {} --quiet --out {}", (out / "metrics.csv").string(), out.string()));
+  CHECK(run.code == 2);
+  CHECK(run.err.find("is the scenario") != std::string::npos);
+  CHECK(test::slurp(out / "metrics.csv") == kScenario);
+}
+
+TEST_CASE("a run removes temporary files a crashed run left, and keeps other files", "[output]") {
+  const fs::path out = test::scratch_path(kArea, "stale");
+  REQUIRE(run_into(out).code == 0);
+  const pid_t child = ::fork();  // a process id that no longer runs
+  if (child == 0) ::_exit(0);
+  ::waitpid(child, nullptr, 0);
+  const std::string stale = fmt::format(".breakdown.csv.tmp-{}-4", static_cast<long>(child));
+  test::write_text(out / stale, "half a file");
+  test::write_text(out / "notes.txt", "mine");
+  REQUIRE(run_into(out).code == 0);
+  CHECK(!fs::exists(out / stale));
+  CHECK(temporaries(out).empty());
+  CHECK(test::slurp(out / "notes.txt") == "mine");
+  CHECK(fs::is_regular_file(out / "report.html"));
+}
+
+TEST_CASE("a bad --precision creates nothing; a read-only folder is found before simulating",
+          "[output]") {
+  const fs::path out = test::scratch_path(kArea, "bad-precision");
+  const Outcome o = run_into(out, "--precision nonsense");
+  CHECK(o.code == 2);
+  CHECK(!fs::exists(out));
+}
+
+TEST_CASE("a full disk: the earlier result stays whole, nothing left behind", "[output]") {
+  // A 1 MiB tmpfs mounted in a private mount namespace (unshare -rm: no root needed where user
+  // namespaces are allowed). The first run fits; then a file fills the disk and a second run
+  // (another seed) must fail with exit 1 naming the disk, leaving the first run's files exactly.
+  const fs::path base = test::scratch_path(kArea, "tmpfs");
+  const fs::path mnt = base / "mnt";
+  const fs::path host = base / "seen";
+  fs::create_directories(mnt);
+  fs::create_directories(host);
+  const std::string script = fmt::format(
+      "set -u; mount -t tmpfs -o size=1m larder-test {mnt} || exit 77; "
+      "{bin} run {sc} --quiet --seed 5 --out {mnt}/out >/dev/null 2>{host}/err1; echo $? > "
+      "{host}/rc1; cp -a {mnt}/out {host}/before; "
+      "dd if=/dev/zero of={mnt}/filler bs=4k 2>/dev/null; "
+      "{bin} run {sc} --quiet --seed 6 --out {mnt}/out >/dev/null 2>{host}/err2; echo $? > "
+      "{host}/rc2; cp -a {mnt}/out {host}/after; ls -a {mnt} > {host}/listing",
+      fmt::arg("mnt", mnt.string()), fmt::arg("bin", LARDER_BINARY),
+      fmt::arg("sc", scenario_file().string()), fmt::arg("host", host.string()));
+  const std::string cmd = fmt::format("unshare -rm sh -c '{}' 2>/dev/null", script);
+  const int status = std::system(cmd.c_str());
+  if (!WIFEXITED(status) || WEXITSTATUS(status) == 77 || !fs::exists(host / "rc2")) {
+    WARN(
+        "a tmpfs cannot be mounted here (unshare -rm and mount refused): the full-disk test "
+        "is skipped; the RLIMIT_FSIZE case above covers the failing write");
+    return;
+  }
+  INFO(test::slurp(host / "err1") << test::slurp(host / "err2"));
+  REQUIRE(test::slurp(host / "rc1") == "0\n");
+  CHECK(test::slurp(host / "rc2") == "1\n");
+  CHECK(test::slurp(host / "err2").find("No space left on device") != std::string::npos);
+  size_t compared = 0;
+  for (const auto& e : fs::directory_iterator(host / "before")) {
+    const fs::path name = e.path().filename();
+    INFO(name.string());
+    CHECK(test::slurp(host / "after" / name) == test::slurp(e.path()));
+    ++compared;
+  }
+  CHECK(compared >= 6);  // the marker, .larder-run, summary, metrics, replications, ... report
+  size_t after = 0;
+  for ([[maybe_unused]] const auto& e : fs::directory_iterator(host / "after")) ++after;
+  CHECK(after == compared);
+  CHECK(temporaries(host / "after").empty());
+  CHECK(test::slurp(host / "listing").find(".staging-") == std::string::npos);
 }
 
 }  // namespace

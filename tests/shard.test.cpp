@@ -75,6 +75,16 @@ bool same_bits(const std::vector<MetricVector>& a, const std::vector<MetricVecto
          (a.empty() || std::memcmp(a.data(), b.data(), a.size() * sizeof(MetricVector)) == 0);
 }
 
+/// The text of `j` with its content digest recomputed, as a forger who knows the format would
+/// write it: what the range checks must still catch.
+std::string resigned(nlohmann::json j) {
+  j.erase("content_digest");
+  const std::string digest =
+      scenario_digest(j.dump(-1, ' ', false, nlohmann::json::error_handler_t::replace));
+  j["content_digest"] = digest;
+  return j.dump();
+}
+
 struct Fixture {
   Scenario scenario = test::scenario_from(kScenario);
   std::vector<Policy> policies = test::policies_for(scenario);
@@ -183,10 +193,66 @@ TEST_CASE("a damaged shard file is refused with a reason", "[shard]") {
                     Catch::Contains("not a larder shard file"));
   nlohmann::json j = nlohmann::json::parse(text);
   j["run"]["values"][0].erase(0);
-  CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("expected 2 entries, found 1"));
+  CHECK_THROWS_WITH(parse_shard_file(resigned(j)), Catch::Contains("expected 2 entries, found 1"));
   j = nlohmann::json::parse(text);
   j["format_version"] = 99;
   CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("format 99 is not supported"));
+}
+
+TEST_CASE("a shard file with one changed digit or an injected number is refused", "[shard]") {
+  // Issue 23: the digest covers every number and run fact, so an edit anywhere is found.
+  Fixture f;
+  const ShardSource s = shard_of(f.scenario, f.policies, {2, 3}, 2);
+  const std::string text = shard_file_text(s.shard);
+  REQUIRE_NOTHROW(parse_shard_file(text));
+  // One digit of the first per-replication value.
+  const size_t values = text.find("\"values\":[[[");
+  REQUIRE(values != std::string::npos);
+  size_t digit = text.find_first_of("0123456789", values + 12);
+  std::string edited = text;
+  edited[digit] = edited[digit] == '9' ? '8' : static_cast<char>(edited[digit] + 1);
+  CHECK_THROWS_WITH(parse_shard_file(edited),
+                    Catch::Contains("its content does not match its digest"));
+  // A value replaced by NaN or 1e308, and a fact changed: the same.
+  nlohmann::json j = nlohmann::json::parse(text);
+  j["run"]["values"][0][0][0] = "nan:7ff8000000000001";
+  CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("does not match its digest"));
+  j = nlohmann::json::parse(text);
+  j["run"]["values"][0][0][0] = 1e308;
+  CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("does not match its digest"));
+  j = nlohmann::json::parse(text);
+  j["run"]["info"]["seed"] = 12;
+  CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("does not match its digest"));
+  j = nlohmann::json::parse(text);
+  j.erase("content_digest");
+  CHECK_THROWS_WITH(parse_shard_file(j.dump()), Catch::Contains("carries no digest"));
+}
+
+TEST_CASE("every integer of a shard file is range-checked before conversion", "[shard]") {
+  // Even with a digest that matches (recomputed), huge or negative counts never wrap.
+  Fixture f;
+  const ShardSource s = shard_of(f.scenario, f.policies, {2, 3}, 2);
+  const nlohmann::json base = nlohmann::json::parse(shard_file_text(s.shard));
+  const auto with = [&](const nlohmann::json::json_pointer& at, const nlohmann::json& value) {
+    nlohmann::json j = base;
+    j[at] = value;
+    return resigned(j);
+  };
+  using ptr = nlohmann::json::json_pointer;
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/shards"), 3567587328LL)),
+                    Catch::Contains("shards is 3567587328; expected a whole number from 1 to"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/shard"), -1)),
+                    Catch::Contains("shard is -1; expected a whole number from 1 to 3"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/replications_total"), 1e308)),
+                    Catch::Contains("replications_total is 1e+308; expected a whole number"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/run/info/replications"), 2147483648LL)),
+                    Catch::Contains("replications is 2147483648; expected a whole number"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/replication_ids/0"), 99)),
+                    Catch::Contains("a replication id is 99; expected a whole number from 0 to 6"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/run/info/seed"), -5)),
+                    Catch::Contains("seed is -5; expected a whole number from 0 to"));
+  CHECK_THROWS_WITH(parse_shard_file(with(ptr("/run/baseline"), 7)),
+                    Catch::Contains("baseline (a policy index) is 7"));
 }
 
 }  // namespace

@@ -14,6 +14,7 @@
 
 #include "sim/scenario/csv_fields.hpp"
 #include "sim/scenario/iso_date.hpp"
+#include "sim/scenario/line_reader.hpp"
 #include "sim/scenario/params.hpp"
 
 namespace larder {
@@ -44,13 +45,31 @@ std::string did_you_mean(const std::string& id, const std::unordered_map<std::st
 
 std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::string& name,
                                                 const Scenario& sc, Diagnostics& diag) {
+  // Bounded reading (issue 23): lines capped as the history's, the whole file at
+  // kMaxReplayFileBytes, so a 1 GB line or /dev/zero is never held.
   std::vector<std::string> lines;
-  for (std::string line; std::getline(in, line);) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    lines.push_back(std::move(line));
-  }
-  if (!lines.empty() && lines[0].rfind("\xEF\xBB\xBF", 0) == 0) lines[0].erase(0, 3);  // BOM
   const auto at = [&](int line, int column) { return Location{name, line, column}; };
+  {
+    LineReader reader(in, kMaxReplayFileBytes);
+    bool too_long = false;
+    for (std::string line; reader.next(line, too_long);) {
+      if (too_long) {
+        diag.error(
+            at(reader.line_number(), 1),
+            fmt::format("line is longer than {} bytes; is this a CSV file?", LineReader::kMaxLine),
+            "columns: store, item, quantity and either day or date");
+        return std::nullopt;
+      }
+      lines.push_back(std::move(line));
+    }
+    if (reader.over_size()) {
+      diag.error(at(reader.line_number() + 1, 1),
+                 fmt::format("the order file is larger than the limit of {} MiB (larder read no "
+                             "further)",
+                             kMaxReplayFileBytes >> 20));
+      return std::nullopt;
+    }
+  }
   if (lines.empty() || lines[0].find_first_not_of(" \t") == std::string::npos) {
     diag.error(at(1, 1), "expected a header such as store,item,day,quantity",
                "columns: store, item, quantity and either day or date");

@@ -4,6 +4,7 @@
 // strict; every bad row is reported as file:line:column. A function of the text and the scenario
 // only, so the fuzz target and tests call it without files.
 
+#include <cstddef>
 #include <istream>
 #include <optional>
 #include <string>
@@ -26,6 +27,9 @@ struct ReplayOrder {
 
 /// Orders per store (scenario store index), each sorted by day and item.
 using ReplayOrders = std::vector<std::vector<ReplayOrder>>;
+
+/// The largest order file read (its orders are kept): about 10 million orders.
+inline constexpr std::size_t kMaxReplayFileBytes = std::size_t{256} << 20;
 
 /// Reads a whole order file from `in` (called `name` in messages) against the scenario's store
 /// and item ids, horizon, calendar and logistics. Every problem goes to `diag`; nullopt when

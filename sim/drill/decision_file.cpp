@@ -8,6 +8,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/csv_fields.hpp"
 
 namespace larder {
@@ -90,7 +91,13 @@ DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
     if (lines[l].find_first_not_of(" \t") == std::string::npos) continue;
     const std::vector<CsvField> f = split_fields(lines[l]);
     if (f.size() != header.size()) {
-      diag.error(at(line, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
+      if (const auto quote = unclosed_quote(lines[l])) {
+        diag.error(at(line, *quote),
+                   "the quote opening this field is never closed (a quoted field ends with \" "
+                   "on the same line)");
+      } else {
+        diag.error(at(line, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
+      }
       continue;
     }
     const CsvField& day_f = f[static_cast<size_t>(col[0])];
@@ -176,15 +183,18 @@ DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
 }
 
 DrillDecisions read_decisions(const DrillGame& game, const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
+  const BoundedText in = read_bounded(path, kMaxDecisionFileBytes);
+  if (!in.ok()) {
     Diagnostics diag;
-    diag.error({path, 0, 0}, fmt::format("cannot read '{}'", path));
+    diag.error({path, 0, 0},
+               in.too_large ? fmt::format("the decision file is larger than the limit of {} "
+                                          "(larder read no further)",
+                                          size_in_words(kMaxDecisionFileBytes))
+                            : fmt::format("cannot read '{}': {}", path, in.problem),
+               "a decision file has one row per drill day and item (day,store,item,quantity)");
     throw InputError(diag);
   }
-  std::stringstream text;
-  text << in.rdbuf();
-  return parse_decisions(game, text.str(), path);
+  return parse_decisions(game, in.text, path);
 }
 
 }  // namespace larder

@@ -9,6 +9,7 @@
 // placed before the drill are skipped (the warm-up is always the house rule's); every turn needs
 // one row per drill item. Every problem is reported as file:line:col (InputError).
 
+#include <cstddef>
 #include <string>
 
 #include "sim/drill/drill_game.hpp"
@@ -23,7 +24,11 @@ std::string decisions_csv(const DrillGame& game, const DrillDecisions& decided);
 DrillDecisions parse_decisions(const DrillGame& game, const std::string& text,
                                const std::string& file);
 
-/// Reads a file (see parse_decisions); an unreadable file is an InputError too.
+/// The largest decision file read (a drill's file is a few kilobytes).
+inline constexpr std::size_t kMaxDecisionFileBytes = std::size_t{16} << 20;
+
+/// Reads a file (see parse_decisions) with the size cap, never more: a pipe or device is read
+/// up to the cap only. An unreadable or larger file is an InputError too.
 DrillDecisions read_decisions(const DrillGame& game, const std::string& path);
 
 }  // namespace larder

@@ -2,9 +2,12 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 
+#include "sim/scenario/csv_fields.hpp"
 #include "sim/scenario/diagnostics.hpp"
+#include "sim/scenario/ids.hpp"
 
 namespace larder {
 
@@ -15,14 +18,56 @@ std::string num(double v) {
   return fmt::format("{:.5g}", v);
 }
 
-/// Text for a YAML double-quoted scalar: backslashes and quotes escaped.
+/// Text for a YAML double-quoted scalar: backslashes and quotes escaped, control characters as
+/// \xNN (check_fit_writable refuses them in values; this keeps a comment or path harmless).
 std::string quoted(const std::string& text) {
   std::string out;
   for (const char ch : text) {
+    const auto byte = static_cast<unsigned char>(ch);
+    if (byte < 0x20 || byte == 0x7f) {
+      out += fmt::format("\\x{:02x}", byte);
+      continue;
+    }
     if (ch == '\\' || ch == '"') out += '\\';
     out += ch;
   }
   return out;
+}
+
+/// Text for the inside of a YAML comment: one line, control characters shown as \xNN.
+std::string comment_text(const std::string& text) {
+  return printable(text, 200);
+}
+
+// The loader's limits (load_scenario.cpp; README, "Limits") that the item file can break.
+constexpr double kMaxMoney = 1e9;
+constexpr int kMaxShelfLife = 365;
+
+/// Whether `text` is valid UTF-8 without control characters (what YAML text may hold).
+bool yaml_safe_text(const std::string& text) {
+  size_t k = 0;
+  while (k < text.size()) {
+    const auto c = static_cast<unsigned char>(text[k]);
+    if (c < 0x20 || c == 0x7f) return false;
+    size_t more = 0;
+    if (c >= 0x80) {
+      if (c >= 0xc2 && c <= 0xdf) {
+        more = 1;
+      } else if (c >= 0xe0 && c <= 0xef) {
+        more = 2;
+      } else if (c >= 0xf0 && c <= 0xf4) {
+        more = 3;
+      } else {
+        return false;
+      }
+      if (k + more >= text.size()) return false;
+      for (size_t m = 1; m <= more; ++m) {
+        if ((static_cast<unsigned char>(text[k + m]) >> 6) != 0x2) return false;
+      }
+    }
+    k += more + 1;
+  }
+  return true;
 }
 
 const ItemRecord* find_item(const WriteOptions& o, const std::string& id) {
@@ -199,8 +244,59 @@ std::vector<std::string> items_without_prices(const FitResult& r, const WriteOpt
   return out;
 }
 
+void check_fit_writable(const FitData& d, const WriteOptions& o) {
+  Diagnostics diag;
+  const std::string hint = fmt::format(
+      "a fitted scenario names stores and items by these ids, which may hold only {}; rename "
+      "them in the history (and the item file) first",
+      kIdCharacters);
+  for (const auto& [what, ids] : {std::pair{"store", &d.stores}, std::pair{"item", &d.items}}) {
+    for (const std::string& id : *ids) {
+      if (const std::string problem = id_problem(id); !problem.empty()) {
+        diag.error(
+            {o.history_file, 0, 0},
+            fmt::format("{} id '{}' {}: a scenario cannot hold it", what, printable(id), problem),
+            hint);
+      }
+    }
+  }
+  for (const ItemRecord& rec : o.items) {
+    if (std::find(d.items.begin(), d.items.end(), rec.id) == d.items.end()) continue;
+    const auto where = Location{o.items_file, 0, 0};
+    for (const auto& [name, v] :
+         {std::pair{"price", rec.price}, std::pair{"unit_cost", rec.unit_cost}}) {
+      if (v > kMaxMoney) {
+        diag.error(where,
+                   fmt::format("item '{}': {} {} is above the scenario limit of {}", rec.id, name,
+                               v, kMaxMoney),
+                   "README, Limits: prices and costs per unit are at most 1e9");
+      }
+    }
+    if (rec.shelf_life_days > kMaxShelfLife) {
+      diag.error(where,
+                 fmt::format("item '{}': shelf_life_days {} is above the scenario limit of {}",
+                             rec.id, rec.shelf_life_days, kMaxShelfLife));
+    }
+    for (const auto& [key, value] : rec.attributes) {
+      if (const std::string problem = id_problem(key); !problem.empty()) {
+        diag.error(where,
+                   fmt::format("attribute name '{}' {}: a scenario cannot hold it", printable(key),
+                               problem),
+                   fmt::format("attribute names may hold only {}", kIdCharacters));
+      } else if (!value.empty() && !yaml_safe_text(value)) {
+        diag.error(where,
+                   fmt::format("item '{}': attribute {} '{}' holds control characters or bytes "
+                               "that are not UTF-8 text",
+                               rec.id, key, printable(value)));
+      }
+    }
+  }
+  if (!diag.ok()) throw InputError(std::move(diag));
+}
+
 std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
   const FitData& d = r.data;
+  check_fit_writable(d, o);
   bool any_item = false, any_store = false;
   for (const auto& e : r.fit.items) any_item = any_item || e.fitted;
   for (const auto& s : r.fit.stores) any_store = any_store || s.fitted;
@@ -214,7 +310,7 @@ std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
   const CivilDate last = add_days(d.first_date, d.days - 1);
   std::string y;
   y += fmt::format("# Fitted by `larder fit` from {}: {} rows, {} to {}, {} stores, {} items.\n",
-                   o.history_file, d.rows.size(), to_iso(d.first_date), to_iso(last),
+                   comment_text(o.history_file), d.rows.size(), to_iso(d.first_date), to_iso(last),
                    d.stores.size(), d.items.size());
   y += "# Demand is corrected for sell-outs: a sold-out day counts as demand >= sales in a\n"
        "# censored likelihood (README, \"Fitting a history\"). Standard errors (se) hold the\n"
@@ -223,12 +319,19 @@ std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
     y += "# PLACEHOLDERS: no --items file was given, so every price and unit_cost below is a\n"
          "# marked placeholder (price 1, unit_cost 0.5): set them before comparing profits.\n";
   } else {
-    y += fmt::format("# Prices, costs and shelf lives from {}.\n", o.items_file);
+    y += fmt::format("# Prices, costs and shelf lives from {}.\n", comment_text(o.items_file));
   }
   y += "format: 1\n";
   y += fmt::format("name: {}\n", o.name);
   y += "seed: 1\n";
-  if (o.replay_orders.empty()) {
+  if (!o.replay_orders.empty()) {
+    y += fmt::format(
+        "horizon: {{ days: {}, warmup_days: 0, start_date: {} }}  # the history's own dates\n",
+        d.days, to_iso(d.first_date));
+    y += fmt::format("replications: {}\n", o.replications);
+  } else if (add_days(last, 1 + 364).year <= 9999) {
+    // The year after the history, dated when its last day is a date the loader reads
+    // (up to 9999-12-31); else only its weekday.
     y += fmt::format(
         "horizon: {{ days: 364, warmup_days: 28, start_date: {} }}  # the year after "
         "the history\n",
@@ -236,9 +339,10 @@ std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& o) {
     y += "replications: 100\n";
   } else {
     y += fmt::format(
-        "horizon: {{ days: {}, warmup_days: 0, start_date: {} }}  # the history's own dates\n",
-        d.days, to_iso(d.first_date));
-    y += fmt::format("replications: {}\n", o.replications);
+        "horizon: {{ days: 364, warmup_days: 28, start_weekday: {} }}  # the history ends "
+        "too close to 9999-12-31 for dates\n",
+        kWeekdayNames[static_cast<size_t>(weekday_of_date(add_days(last, 1)))]);
+    y += "replications: 100\n";
   }
   if (d.columns.hours > 0) {
     y += fmt::format(

@@ -62,8 +62,14 @@ std::string cv_interval_text(const ItemEstimate& e);
 /// Items of the history that the item file does not list (they get placeholders).
 std::vector<std::string> items_without_prices(const FitResult& r, const WriteOptions& options);
 
-/// The scenario text. Throws InputError naming the history when no item or no store could be
-/// fitted (there would be nothing valid to write).
+/// Throws InputError listing what the loader would refuse or misread in the written scenario:
+/// store and item ids that are not ids (written as they are, so `, size: 1000 } #` could
+/// otherwise set a store's size), prices, costs and shelf lives of the item file beyond the
+/// scenario limits, attribute names that are not ids, attribute values that are not text.
+void check_fit_writable(const FitData& data, const WriteOptions& options);
+
+/// The scenario text (check_fit_writable first). Throws InputError naming the history when no
+/// item or no store could be fitted (there would be nothing valid to write).
 std::string fitted_scenario_yaml(const FitResult& r, const WriteOptions& options);
 
 }  // namespace larder

@@ -122,8 +122,8 @@ std::optional<Header> read_header(const std::vector<CsvField>& f, Problems& prob
       const auto k = static_cast<size_t>(known - kNames.begin());
       if (h.col[k] >= 0) {
         problems.add(1, f[c].column,
-                     fmt::format("column '{}' is given twice (first as column {})", name,
-                                 f[static_cast<size_t>(h.col[k])].column));
+                     fmt::format("column '{}' is given twice (first as field {}, at 1:{})", name,
+                                 h.col[k] + 1, f[static_cast<size_t>(h.col[k])].column));
         ok = false;
       }
       h.col[k] = static_cast<int>(c);
@@ -397,11 +397,24 @@ HistoryColumns read_history(std::istream& in, const std::string& file,
     if (too_long) {
       problems.add(
           lines.line_number(), 1,
-          fmt::format("line is longer than {} bytes; is this a CSV file?", LineReader::kMaxLine));
+          lines.stopped_early()
+              ? fmt::format("line is longer than {} bytes and goes on past {} without an end; "
+                            "larder read no further. Is this a CSV file?",
+                            LineReader::kMaxLine, LineReader::kMaxSkip)
+              : fmt::format("line is longer than {} bytes; is this a CSV file?",
+                            LineReader::kMaxLine));
       continue;
     }
     if (is_blank(line)) continue;
     split_fields(line, fields);
+    if (fields.size() != header->fields) {
+      if (const auto quote = unclosed_quote(line)) {
+        problems.add(lines.line_number(), *quote,
+                     "the quote opening this field is never closed (a quoted field ends with \" "
+                     "on the same line)");
+        continue;
+      }
+    }
     rows.read(fields, lines.line_number());
   }
   if (problems.any()) problems.raise();

@@ -104,7 +104,10 @@ TEST_CASE("history reader: header problems", "[history]") {
   rejected("date,store,item,delivered,sold,leftover,sold_out,demand\n",
            {"h.csv:1:50: error: unknown column 'demand'"});
   rejected("date,store,item,delivered,sold,leftover,sold_out,sold\n",
-           {"h.csv:1:50: error: column 'sold' is given twice (first as column 27)"});
+           {"h.csv:1:50: error: column 'sold' is given twice (first as field 5, at 1:27)"});
+  // An unclosed quote is named as such, not as a count of fields (issue 23).
+  rejected(kHeader + "2027-03-01,\"north,bun,10,12,2,0\n",
+           {"h.csv:2:12: error: the quote opening this field is never closed"});
   rejected("date,store,item,delivered,sold,leftover,soldout\n",
            {"h.csv:1:41: error: unknown column 'soldout'", "hint: did you mean 'sold_out'?"});
 }

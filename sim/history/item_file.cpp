@@ -12,6 +12,7 @@
 #include <tuple>
 #include <unordered_map>
 
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/csv_fields.hpp"
 #include "sim/scenario/diagnostics.hpp"
 #include "sim/scenario/line_reader.hpp"
@@ -54,7 +55,7 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
         "`larder history --items-out ITEMS.csv` writes one");
     throw InputError(std::move(diag));
   }
-  LineReader lines(in);
+  LineReader lines(in, kMaxItemFileBytes);
   std::string line;
   bool too_long = false;
   std::vector<CsvField> f;
@@ -77,17 +78,18 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
   std::array<int, column_kinds> col;
   col.fill(-1);
   std::vector<size_t> attribute_cols;
-  std::unordered_map<std::string, int> seen;  // column name -> its column
+  std::unordered_map<std::string, int> seen;  // column name -> its field index
   for (size_t c = 0; c < header.size(); ++c) {
     const std::string& name = header[c].text;
     if (name.empty()) {
       diag.error(at(1, header[c].column), "column name is empty", kHint);
       continue;
     }
-    if (const auto [it, fresh] = seen.try_emplace(name, header[c].column); !fresh) {
-      diag.error(at(1, header[c].column),
-                 fmt::format("column '{}' is given twice (first as column {})", printable(name),
-                             it->second));
+    if (const auto [it, fresh] = seen.try_emplace(name, static_cast<int>(c)); !fresh) {
+      diag.error(
+          at(1, header[c].column),
+          fmt::format("column '{}' is given twice (first as field {}, at 1:{})", printable(name),
+                      it->second + 1, header[static_cast<size_t>(it->second)].column));
       continue;
     }
     const auto known = std::find(kNames.begin(), kNames.end(), name);
@@ -119,7 +121,13 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
     if (line.find_first_not_of(" \t") == std::string::npos) continue;
     split_fields(line, f);
     if (f.size() != header.size()) {
-      diag.error(at(l, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
+      if (const auto quote = unclosed_quote(line)) {
+        diag.error(at(l, *quote),
+                   "the quote opening this field is never closed (a quoted field ends with \" "
+                   "on the same line)");
+      } else {
+        diag.error(at(l, 1), fmt::format("expected {} fields, got {}", header.size(), f.size()));
+      }
       continue;
     }
     const auto cell = [&](Column k) -> const CsvField& { return f[static_cast<size_t>(col[k])]; };
@@ -157,6 +165,17 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
     }
     for (size_t c : attribute_cols) r.attributes.emplace_back(header[c].text, f[c].text);
     if (ok) items.push_back(std::move(r));
+  }
+  if (lines.over_size()) {
+    diag.error(at(lines.line_number() + 1, 1),
+               fmt::format("the item file is larger than the limit of {} (larder read no further)",
+                           size_in_words(kMaxItemFileBytes)),
+               kHint);
+  } else if (lines.stopped_early()) {
+    diag.error(at(lines.line_number(), 1),
+               fmt::format("the line goes on past {} without an end (larder read no further); is "
+                           "this a CSV file?",
+                           size_in_words(LineReader::kMaxSkip)));
   }
   if (diag.ok() && items.empty()) diag.error(at(1, 1), "the item file has no items", kHint);
   if (!diag.ok()) throw InputError(std::move(diag));

@@ -3,6 +3,7 @@
 // a CSV with one row per item, columns `item,price,unit_cost,shelf_life_days` (any order) and
 // every other column an attribute of the item (README, "History format").
 
+#include <cstddef>
 #include <string>
 #include <utility>
 #include <vector>
@@ -18,7 +19,12 @@ struct ItemRecord {
       attributes;  ///< every other column, in header order
 };
 
-/// Reads and checks an item file; every problem is reported at once as InputError
+/// The largest item file read (its rows are kept): a million items with attributes.
+inline constexpr std::size_t kMaxItemFileBytes = std::size_t{256} << 20;
+
+/// Reads and checks an item file (lines capped as the history's, the whole at
+/// kMaxItemFileBytes, so a pipe or device is never read without end); every problem is reported at
+/// once as InputError
 /// (`file:line:col: error: ...`): missing, unknown-empty or duplicate columns, duplicate or empty
 /// item ids, prices and costs that are not numbers >= 0, shelf lives that are not whole numbers
 /// >= 1.

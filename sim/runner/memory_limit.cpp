@@ -11,27 +11,56 @@
 namespace larder {
 
 std::optional<std::size_t> parse_memory_size(const std::string& text) {
-  if (text.empty()) return std::nullopt;
-  double scale = 1.0;
   std::string number = text;
-  const char unit = static_cast<char>(std::toupper(static_cast<unsigned char>(text.back())));
-  const std::string units = "KMGT";
-  if (const auto k = units.find(unit); k != std::string::npos) {
-    scale = std::pow(1024.0, static_cast<double>(k + 1));
+  while (!number.empty() && number.back() == ' ') number.pop_back();
+  const auto ends_with = [&](std::string_view suffix) {
+    if (number.size() < suffix.size()) return false;
+    for (size_t k = 0; k < suffix.size(); ++k) {
+      const char c = number[number.size() - suffix.size() + k];
+      if (std::toupper(static_cast<unsigned char>(c)) != suffix[k]) return false;
+    }
+    return true;
+  };
+  // "4G", "4GB" and "4GiB" are all 4 * 1024^3 bytes; a plain number is bytes.
+  if (ends_with("IB")) {
+    number.resize(number.size() - 2);
+  } else if (ends_with("B") && number.size() >= 2 &&
+             std::string("KMGT").find(static_cast<char>(std::toupper(
+                 static_cast<unsigned char>(number[number.size() - 2])))) != std::string::npos) {
     number.pop_back();
+  }
+  double scale = 1.0;
+  if (!number.empty()) {
+    const char unit = static_cast<char>(std::toupper(static_cast<unsigned char>(number.back())));
+    if (const auto k = std::string("KMGT").find(unit); k != std::string::npos) {
+      scale = std::pow(1024.0, static_cast<double>(k + 1));
+      number.pop_back();
+    }
+  }
+  while (!number.empty() && number.back() == ' ') number.pop_back();
+  if (number.empty() || number.find_first_not_of("0123456789.") != std::string::npos ||
+      number.find('.') != number.rfind('.')) {
+    return std::nullopt;  // digits and one point only: no sign, exponent, hex, inf or nan
   }
   try {
     size_t used = 0;
     const double v = std::stod(number, &used);
-    if (used != number.size() || !(v > 0.0) || !std::isfinite(v)) return std::nullopt;
-    return static_cast<std::size_t>(v * scale);
+    const double bytes = v * scale;
+    // Up to 2^60 bytes (an exbibyte): beyond any machine, and far inside size_t.
+    if (used != number.size() || !(bytes >= 1.0) || bytes > std::ldexp(1.0, 60)) {
+      return std::nullopt;
+    }
+    return static_cast<std::size_t>(bytes);
   } catch (const std::exception&) {
     return std::nullopt;
   }
 }
 
 std::string format_bytes(std::size_t bytes) {
-  const double mib = static_cast<double>(bytes) / (1024.0 * 1024.0);
+  const double b = static_cast<double>(bytes);
+  if (bytes < 1024) return fmt::format("{} bytes", bytes);
+  if (bytes < (std::size_t{1} << 20)) return fmt::format("{:.0f} KiB", b / 1024.0);
+  const double mib = b / (1024.0 * 1024.0);
   return mib >= 1024.0 ? fmt::format("{:.1f} GiB", mib / 1024.0) : fmt::format("{:.0f} MiB", mib);
 }
 
@@ -60,7 +89,9 @@ std::size_t check_memory(const Scenario& scenario, const std::vector<Policy>& po
     if (!parsed) {
       Diagnostics d;
       d.error({scenario.file, 0, 0},
-              fmt::format("--max-memory {}: expected a size such as 512M, 4G or 1.5G", limit_text));
+              fmt::format("--max-memory {}: expected a size of at least 1 byte such as 512M, 4G, "
+                          "1.5GiB or 800000 (bytes); K, M, G and T are powers of 1024",
+                          limit_text));
       throw InputError(d);
     }
     limit = *parsed;

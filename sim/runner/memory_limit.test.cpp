@@ -15,7 +15,16 @@ TEST_CASE("parse_memory_size reads K, M, G and T suffixes", "[runner]") {
   CHECK_FALSE(parse_memory_size(""));
   CHECK_FALSE(parse_memory_size("G"));
   CHECK_FALSE(parse_memory_size("-1G"));
-  CHECK_FALSE(parse_memory_size("4GB"));
+  CHECK(parse_memory_size("4GB") == std::size_t{4} << 30);
+  CHECK(parse_memory_size("4 GiB") == std::size_t{4} << 30);
+  CHECK(parse_memory_size("1K") == std::size_t{1024});
+  CHECK_FALSE(parse_memory_size("1e30T"));  // beyond 2^60 bytes: never converted
+  CHECK_FALSE(parse_memory_size("nan"));
+  CHECK_FALSE(parse_memory_size("0x10"));
+  CHECK_FALSE(parse_memory_size("0.1"));  // less than a byte
+  // Small limits are shown in their own unit, not as "0 MiB" (issue 23).
+  CHECK(format_bytes(1024) == "1 KiB");
+  CHECK(format_bytes(100) == "100 bytes");
   CHECK(format_bytes(std::size_t{3} << 29) == "1.5 GiB");
   CHECK(format_bytes(std::size_t{512} << 20) == "512 MiB");
 }

@@ -1,6 +1,7 @@
 #pragma once
 // What a run will cost before it starts: its size, an estimate of its time (timed on a pilot
-// of one store over the whole horizon) and of its peak memory.
+// of one store over the first kPilotDays days of the horizon, scaled to the whole) and of its
+// peak memory.
 
 #include <cstddef>
 #include <cstdint>
@@ -19,6 +20,9 @@ struct RunEstimate {
   double seconds = 0.0;          ///< estimated wall time of the whole run
   std::size_t memory_bytes = 0;  ///< estimated peak memory of the simulation
 };
+
+/// The most days the pilot simulates (104 weeks, so every weekday is sampled alike).
+inline constexpr int kPilotDays = 728;
 
 /// Size, time and memory of running every policy for the scenario's replications.
 RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& policies,

@@ -57,6 +57,38 @@ void split_fields(std::string_view line, std::vector<CsvField>& out) {
   }
 }
 
+std::optional<int> unclosed_quote(std::string_view line) {
+  size_t pos = 0;
+  const size_t n = line.size();
+  while (pos <= n) {
+    size_t a = pos;
+    while (a < n && blank(line[a])) ++a;
+    size_t end = a;
+    if (a < n && line[a] == '"') {
+      size_t i = a + 1;
+      bool closed = false;
+      while (i < n) {
+        if (line[i] == '"') {
+          if (i + 1 < n && line[i + 1] == '"') {
+            i += 2;
+            continue;
+          }
+          closed = true;
+          ++i;
+          break;
+        }
+        ++i;
+      }
+      if (!closed) return static_cast<int>(a) + 1;
+      end = i;
+    }
+    while (end < n && line[end] != ',') ++end;
+    if (end >= n) break;
+    pos = end + 1;
+  }
+  return std::nullopt;
+}
+
 std::vector<CsvField> split_fields(std::string_view line) {
   std::vector<CsvField> out;
   split_fields(line, out);

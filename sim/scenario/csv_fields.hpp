@@ -17,6 +17,11 @@ struct CsvField {
   int column = 1;
 };
 
+/// The 1-based column of a quote that opens a field and is never closed on `line` (the field
+/// then swallows the commas after it, so the count of fields is off); nullopt when every quote
+/// is closed. Readers say this instead of "expected N fields".
+std::optional<int> unclosed_quote(std::string_view line);
+
 /// Splits `line` (without its line end) into `out`, reusing its storage.
 void split_fields(std::string_view line, std::vector<CsvField>& out);
 

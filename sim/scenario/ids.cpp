@@ -13,6 +13,12 @@ bool is_id_char(char c) {
 
 std::string id_problem(std::string_view text) {
   if (text.empty()) return "must not be empty";
+  if (text.size() > kMaxIdLength) {
+    return fmt::format(
+        "must be at most {} characters (got {}): ids name folders and files, "
+        "whose names are limited",
+        kMaxIdLength, text.size());
+  }
   for (char c : text) {
     if (!is_id_char(c)) return fmt::format("must use only {} (got '{}')", kIdCharacters, text);
   }

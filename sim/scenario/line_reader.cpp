@@ -4,7 +4,8 @@
 
 namespace larder {
 
-LineReader::LineReader(std::istream& in) : buf_(in.rdbuf()), block_(std::size_t{1} << 16) {
+LineReader::LineReader(std::istream& in, std::size_t max_bytes)
+    : buf_(in.rdbuf()), block_(std::size_t{1} << 16), max_bytes_(max_bytes) {
   eof_ = buf_ == nullptr;
 }
 
@@ -12,13 +13,25 @@ bool LineReader::next(std::string& line, bool& too_long) {
   line.clear();
   too_long = false;
   bool any = false;
+  std::size_t skipped = 0;
+  if (stopped_early_) return false;
   while (true) {
     if (pos_ == end_) {
       if (eof_) break;
+      if (max_bytes_ > 0 && read_bytes_ >= max_bytes_) {
+        stopped_early_ = over_size_ = eof_ = true;
+        line.clear();  // a line cut by the cap is not a line
+        return false;
+      }
+      if (too_long && skipped > kMaxSkip) {
+        stopped_early_ = eof_ = true;
+        break;
+      }
       const std::streamsize got =
           buf_->sgetn(block_.data(), static_cast<std::streamsize>(block_.size()));
       pos_ = 0;
       end_ = got > 0 ? static_cast<std::size_t>(got) : 0;
+      read_bytes_ += end_;
       if (end_ == 0) {
         eof_ = true;
         break;
@@ -38,6 +51,8 @@ bool LineReader::next(std::string& line, bool& too_long) {
       } else {
         line.append(start, len);
       }
+    } else {
+      skipped += len;
     }
     pos_ += len;
     if (nl != nullptr) {

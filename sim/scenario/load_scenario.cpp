@@ -15,12 +15,14 @@
 #include <system_error>
 #include <utility>
 
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/duplicate_keys.hpp"
 #include "sim/scenario/generated_stores.hpp"
 #include "sim/scenario/ids.hpp"
 #include "sim/scenario/intraday_profile.hpp"
 #include "sim/scenario/iso_date.hpp"
 #include "sim/scenario/params.hpp"
+#include "sim/scenario/seed_text.hpp"
 #include "sim/scenario/weekdays.hpp"
 #include "sim/scenario/yaml_guard.hpp"
 #include "sim/scenario/yaml_stall.hpp"
@@ -29,7 +31,6 @@ namespace larder {
 
 namespace {
 
-constexpr int kMaxReplications = 1000000;
 constexpr int kMaxGeneratedStores = 1000000;
 // Upper bounds that keep counts within `int`, arrays small and sums finite (README, "Limits").
 constexpr int kMaxDays = 100000;  ///< horizon.days: about 270 years
@@ -697,17 +698,10 @@ class ScenarioReader {
   void read_seed(Params& top) {
     const YAML::Node n = top.raw("seed");
     if (n.IsDefined() && !n.IsNull()) {
-      std::uint64_t v = 0;
-      const std::string t = n.IsScalar() ? n.Scalar() : std::string{};
-      const auto [end, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
-      const bool digits_only = !t.empty() && std::all_of(t.begin(), t.end(), [](char c) {
-        return c >= '0' && c <= '9';
-      });
-      if (!digits_only || ec != std::errc{} || end != t.data() + t.size()) {
-        error(n, fmt::format("seed must be a whole number in [0, {}] (got {})",
-                             std::numeric_limits<std::uint64_t>::max(), describe_value(n)));
-      }
-      scenario_.seed = v;
+      const std::optional<std::uint64_t> v =
+          parse_seed_text(n.IsScalar() ? n.Scalar() : std::string{});
+      if (!v) error(n, fmt::format("{} (got {})", seed_rule("seed"), describe_value(n)));
+      scenario_.seed = v.value_or(0);
       scenario_.seed_given = true;
       return;
     }
@@ -1236,6 +1230,27 @@ class ScenarioReader {
   std::vector<EventStoreRef> event_store_refs_;
 };
 
+/// A hint when the line of a YAML error (0-based `line`) or the one before it is indented with
+/// a tab: yaml-cpp's message does not name it as the cause.
+std::string tab_hint(const std::string& text, int line) {
+  if (line < 0) return {};
+  std::vector<std::string_view> lines;
+  std::string_view rest = text;
+  for (int k = 0; k <= line && !rest.empty(); ++k) {
+    const size_t nl = rest.find('\n');
+    lines.push_back(rest.substr(0, nl));
+    rest = nl == std::string_view::npos ? std::string_view{} : rest.substr(nl + 1);
+  }
+  for (int k = std::max(0, line - 1); k <= line && k < static_cast<int>(lines.size()); ++k) {
+    const std::string_view l = lines[static_cast<size_t>(k)];
+    const size_t first = l.find_first_not_of(" \t");
+    if (l.substr(0, first).find('\t') != std::string_view::npos) {
+      return fmt::format("line {} is indented with a tab; YAML indents with spaces only", k + 1);
+    }
+  }
+  return {};
+}
+
 std::optional<Scenario> parse_document(const std::string& text, const std::string& file,
                                        Diagnostics& diag) {
   if (!check_yaml_text(text, file, diag)) return std::nullopt;  // size, bytes, depth
@@ -1250,7 +1265,7 @@ std::optional<Scenario> parse_document(const std::string& text, const std::strin
   } catch (const YAML::ParserException& e) {
     const Location where =
         e.mark.line < 0 ? Location{file, 0, 0} : Location{file, e.mark.line + 1, e.mark.column + 1};
-    diag.error(where, fmt::format("invalid YAML: {}", e.msg));
+    diag.error(where, fmt::format("invalid YAML: {}", e.msg), tab_hint(text, e.mark.line));
     return std::nullopt;
   }
   if (docs.empty() || docs[0].IsNull()) {
@@ -1305,27 +1320,29 @@ std::optional<Scenario> parse_scenario(const std::string& yaml_text, const std::
   return scenario;
 }
 
+std::string read_scenario_text(const std::string& path) {
+  Diagnostics diag;
+  // Read with the size cap first (a pipe or /dev/zero never gets read whole), then parsed.
+  const std::size_t cap = YamlLimits{}.max_bytes;
+  BoundedText in = read_bounded(path, cap);
+  if (in.too_large) {
+    diag.error({path, 0, 0},
+               fmt::format("the file is too large for a scenario: more than the limit of {} "
+                           "(larder read no further)",
+                           size_in_words(cap)),
+               "a scenario is a short YAML file (see scenarios/); is this the right file?");
+    throw InputError(std::move(diag));
+  }
+  if (!in.ok()) {
+    diag.error({path, 0, 0}, fmt::format("cannot read the scenario: {}", in.problem));
+    throw InputError(std::move(diag));
+  }
+  return std::move(in.text);
+}
+
 Scenario load_scenario_file(const std::string& path) {
   Diagnostics diag;
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec)) {
-    diag.error({path, 0, 0}, "cannot read the scenario: it is a directory");
-    throw InputError(std::move(diag));
-  }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    const int err = errno;
-    diag.error({path, 0, 0},
-               fmt::format("cannot read the scenario: {}", std::generic_category().message(err)));
-    throw InputError(std::move(diag));
-  }
-  std::ostringstream text;
-  text << in.rdbuf();
-  if (in.bad()) {
-    diag.error({path, 0, 0}, "cannot read the scenario: read error");
-    throw InputError(std::move(diag));
-  }
-  auto scenario = parse_scenario(text.str(), path, diag);
+  auto scenario = parse_scenario(read_scenario_text(path), path, diag);
   if (!scenario) throw InputError(std::move(diag));
   return std::move(*scenario);
 }

@@ -16,6 +16,13 @@ namespace larder {
 std::optional<Scenario> parse_scenario(const std::string& yaml_text, const std::string& file_label,
                                        Diagnostics& diag);
 
+/// The most replications a scenario (or `-r`) may ask for.
+inline constexpr int kMaxReplications = 1000000;
+
+/// The text of a scenario file (a FIFO or device too), read with the 16 MiB cap before anything
+/// larger is allocated; throws InputError when it cannot be read or is larger.
+std::string read_scenario_text(const std::string& path);
+
 /// Reads a file; throws InputError carrying all diagnostics (a missing/unreadable file is one
 /// diagnostic without line).
 Scenario load_scenario_file(const std::string& path);

@@ -3,7 +3,9 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cerrno>
 #include <cmath>
+#include <cstdlib>
 
 namespace larder {
 
@@ -14,7 +16,9 @@ std::string number_text(double v) {
   return fmt::format("{}", v);
 }
 
-std::string node_text(const YAML::Node& node) { return describe_value(node); }
+std::string node_text(const YAML::Node& node) {
+  return describe_value(node);
+}
 
 }  // namespace
 
@@ -50,7 +54,9 @@ std::string describe_value(const YAML::Node& node) {
   return "nothing";
 }
 
-bool is_integral(double v) { return std::abs(v - std::round(v)) < 1e-9; }
+bool is_integral(double v) {
+  return std::abs(v - std::round(v)) < 1e-9;
+}
 
 int edit_distance(std::string_view a, std::string_view b) {
   std::vector<int> row(b.size() + 1);
@@ -71,8 +77,22 @@ std::optional<double> read_number(const YAML::Node& node, const std::string& wha
                                   const std::string& file, Diagnostics& diag) {
   double v = 0;
   if (!node.IsScalar() || !YAML::convert<double>::decode(node, v) || std::isnan(v)) {
-    diag.error(location_of(node, file), fmt::format("{} must be a number (got {})", what,
-                                                    node_text(node)));
+    // A number too large for a double (1e400) is a number all the same: say what is wrong.
+    if (node.IsScalar() && !node.Scalar().empty()) {
+      const std::string& t = node.Scalar();
+      char* end = nullptr;
+      errno = 0;
+      const double big = std::strtod(t.c_str(), &end);
+      if (end == t.c_str() + t.size() && errno == ERANGE && std::isinf(big)) {
+        diag.error(location_of(node, file),
+                   fmt::format("{} is too large for a number (got {}); numbers go up to about "
+                               "1.8e308, and every key has a much lower limit",
+                               what, t));
+        return std::nullopt;
+      }
+    }
+    diag.error(location_of(node, file),
+               fmt::format("{} must be a number (got {})", what, node_text(node)));
     return std::nullopt;
   }
   if (std::isinf(v)) {
@@ -100,7 +120,9 @@ bool Params::has(std::string_view key) {
   return node_.IsMap() && node_[std::string(key)].IsDefined() && !node_[std::string(key)].IsNull();
 }
 
-Location Params::location() const { return location_of(node_, file_); }
+Location Params::location() const {
+  return location_of(node_, file_);
+}
 
 Location Params::location(std::string_view key) const {
   if (node_.IsMap()) {

@@ -52,6 +52,13 @@ bool check_text_bytes(std::string_view text, const std::string& file, Diagnostic
                  "a scenario is a YAML text file in UTF-8; is this the right file?");
       return false;
     }
+    if (c == '\r' && (i + 1 >= text.size() || text[i + 1] != '\n')) {
+      diag.error({file, line, column},
+                 "a carriage return without a line feed: the file has old Mac line ends (CR "
+                 "only), which YAML does not read as line ends",
+                 "save the file with Unix (LF) or Windows (CR LF) line ends");
+      return false;
+    }
     if (c == '\n') {
       ++line;
       column = 1;
