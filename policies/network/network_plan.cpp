@@ -36,7 +36,8 @@ NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
   const size_t n_levels = plan.level_grid.size();
   std::vector<Economics> economics;
   for (const Item& it : scenario.items) {
-    economics.push_back({it.price, it.unit_cost, leftover_recovery(scenario, it, it.stockout_penalty),
+    economics.push_back({it.price, it.unit_cost,
+                         leftover_recovery(scenario, it, it.stockout_penalty),
                          it.stockout_penalty});
   }
   std::vector<GroupCurve> curves(static_cast<size_t>(plan.groups.count()));

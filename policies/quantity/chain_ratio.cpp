@@ -50,8 +50,8 @@ std::optional<ChainSpec> typical_chain(const Scenario& sc, int item_index, doubl
       std::accumulate(item.demand.weekday.begin(), item.demand.weekday.end(), 0.0) / kDaysPerWeek;
   const double mean = item.demand.base * size * weekday;
   if (!(mean > 0.0)) return std::nullopt;
-  const CountLaw law = CountLaw::make(item.demand.family, mean, item.demand.cv,
-                                      item.demand.dispersion);
+  const CountLaw law =
+      CountLaw::make(item.demand.family, mean, item.demand.cv, item.demand.dispersion);
   ChainSpec c;
   c.life = item.shelf_life_days;
   c.lead = sc.logistics.lead_time_days;
@@ -104,9 +104,11 @@ double best_chain_ratio(const Scenario& sc, int item_index, const ChainSpec& spe
   const auto rule = [&](double p) {
     return [&, p](std::span<const int> slots) {
       int k = 0;
-      for (int a = 0; a + 1 < life; ++a) stock[static_cast<size_t>(a)] = slots[static_cast<size_t>(k++)];
+      for (int a = 0; a + 1 < life; ++a)
+        stock[static_cast<size_t>(a)] = slots[static_cast<size_t>(k++)];
       const int discounted = spec.discount_tier ? slots[static_cast<size_t>(k++)] : 0;
-      for (int d = 0; d + 1 < lead; ++d) pipeline[static_cast<size_t>(d)] = slots[static_cast<size_t>(k++)];
+      for (int d = 0; d + 1 < lead; ++d)
+        pipeline[static_cast<size_t>(d)] = slots[static_cast<size_t>(k++)];
       OrderInput& x = in[0];
       x = OrderInput{};
       x.forecast = forecast;
@@ -147,7 +149,8 @@ double approximate_recovery(const Scenario& sc, const Item& item, double penalty
   const double p = item.price;
   const double c = item.unit_cost;
   if (item.next_day) {
-    const double fallback = item.next_day->fallback == Leftovers::salvage ? item.salvage_value : 0.0;
+    const double fallback =
+        item.next_day->fallback == Leftovers::salvage ? item.salvage_value : 0.0;
     const double q = item.next_day->price;
     const double take = sc.discount_take_rate;
     // Fixed point of ratio = (p - c + g) / (p - s + g), s = take * (q - p * ratio) + (1 - take)

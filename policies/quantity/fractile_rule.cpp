@@ -64,10 +64,10 @@ void FractileRule::decide(const OrderContext& ctx, std::span<const OrderInput> i
       // The daily fast path: the quantile target minus usable stock and units on order.
       int target = 0;
       if (p > 0.0) {
-        target =
-            (family_[i] == DemandFamily::normal ? normal_count_quantile(in[i].forecast, z_[i])
-                                                : forecast_quantile(in[i].forecast, family_[i], p)) +
-            extra_;
+        target = (family_[i] == DemandFamily::normal
+                      ? normal_count_quantile(in[i].forecast, z_[i])
+                      : forecast_quantile(in[i].forecast, family_[i], p)) +
+                 extra_;
       }
       out[i] = std::max(0, target - in[i].usable_stock - in[i].on_order);
       continue;

@@ -29,9 +29,8 @@ std::vector<double> binomial_row(int n, double p) {
   double top = -std::numeric_limits<double>::infinity();
   std::vector<double> lg(row.size());
   for (int k = 0; k <= n; ++k) {
-    lg[static_cast<size_t>(k)] = log_gamma(n + 1.0) - log_gamma(k + 1.0) -
-                                 log_gamma(n - k + 1.0) + k * std::log(p) +
-                                 (n - k) * std::log1p(-p);
+    lg[static_cast<size_t>(k)] = log_gamma(n + 1.0) - log_gamma(k + 1.0) - log_gamma(n - k + 1.0) +
+                                 k * std::log(p) + (n - k) * std::log1p(-p);
     top = std::max(top, lg[static_cast<size_t>(k)]);
   }
   double sum = 0.0;
@@ -87,11 +86,13 @@ ItemChain::ItemChain(ChainSpec spec) : spec_(std::move(spec)) {
       part[static_cast<size_t>(k)] = static_cast<int>(rest % radix_);
       rest /= radix_;
     }
-    for (int a = 0; a + 1 < spec_.life; ++a) shelf[static_cast<size_t>(a)] = part[static_cast<size_t>(a)];
+    for (int a = 0; a + 1 < spec_.life; ++a)
+      shelf[static_cast<size_t>(a)] = part[static_cast<size_t>(a)];
     const int discounted = spec_.discount_tier ? part[static_cast<size_t>(spec_.life - 1)] : 0;
     for (int arrival = 0; arrival <= spec_.cap; ++arrival) {
       shelf.back() = arrival;
-      mornings_[static_cast<size_t>(p * radix_ + arrival)] = simulate_day(shelf, discounted, scratch);
+      mornings_[static_cast<size_t>(p * radix_ + arrival)] =
+          simulate_day(shelf, discounted, scratch);
     }
   }
 }
@@ -118,8 +119,8 @@ ItemChain::Morning ItemChain::simulate_day(std::span<const int> shelf, int disco
       const int accept = static_cast<int>(a);
       const TierTake t = take_tiers(accept, demand - accept, full_total, discounted);
       const int lost = demand - t.full - t.discounted;
-      const double base_reward = c.price * t.full + c.discount_price * t.discounted -
-                                 c.stockout_penalty * lost;
+      const double base_reward =
+          c.price * t.full + c.discount_price * t.discounted - c.stockout_penalty * lost;
       // Oldest-first customers: Binomial(sold, fifo_share), deterministic at 0 and 1.
       const std::vector<double> split = binomial_row(t.full, c.fifo_share);
       for (size_t k = 0; k < split.size(); ++k) {
@@ -149,7 +150,8 @@ ItemChain::Morning ItemChain::simulate_day(std::span<const int> shelf, int disco
           reward += c.leaving_value * leaving;
         }
         m.reward += pk * reward;
-        if (next[static_cast<size_t>(part)] == 0.0) touched.push_back(static_cast<std::int32_t>(part));
+        if (next[static_cast<size_t>(part)] == 0.0)
+          touched.push_back(static_cast<std::int32_t>(part));
         next[static_cast<size_t>(part)] += pk;
       }
     }
@@ -246,7 +248,8 @@ double ItemChain::evaluate(const std::function<int(std::span<const int>)>& order
   std::vector<int> slot(static_cast<size_t>(std::max(dims_, 1)));
   for (std::int64_t s = 0; s < states_; ++s) {
     slots(s, slot);
-    fixed[static_cast<size_t>(s)] = std::clamp(order({slot.data(), static_cast<size_t>(dims_)}), 0, spec_.cap);
+    fixed[static_cast<size_t>(s)] =
+        std::clamp(order({slot.data(), static_cast<size_t>(dims_)}), 0, spec_.cap);
   }
   const auto given = [&](std::int64_t s, std::span<const double> v, std::vector<int>*) {
     return action_value(s, fixed[static_cast<size_t>(s)], v);

@@ -88,20 +88,18 @@ class ItemChain {
     std::vector<Outcome> outcomes;
   };
   /// `next` is scratch of parts_ zeros, returned zeroed.
-  Morning simulate_day(std::span<const int> shelf, int discounted,
-                       std::vector<double>& next) const;
+  Morning simulate_day(std::span<const int> shelf, int discounted, std::vector<double>& next) const;
   std::int64_t morning_index(std::span<const int> slots, int arrival) const;
   /// Value of taking `order` in state `s`, given the current relative values.
   double action_value(std::int64_t s, int order, std::span<const double> v) const;
   template <class Choose>
-  double iterate(Choose choose, double tol, int max_iterations,
-                 std::vector<int>* chosen) const;
+  double iterate(Choose choose, double tol, int max_iterations, std::vector<int>* chosen) const;
 
   ChainSpec spec_;
   int radix_ = 1;
   int part_dims_ = 0;  ///< life - 1 [+ 1]
   int dims_ = 0;
-  std::int64_t parts_ = 1;      ///< (evening stock, discounted) combinations
+  std::int64_t parts_ = 1;       ///< (evening stock, discounted) combinations
   std::int64_t pipe_count_ = 1;  ///< radix^(lead - 1)
   std::int64_t states_ = 1;
   std::vector<Morning> mornings_;  ///< by (part, arrival)

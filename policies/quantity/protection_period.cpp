@@ -124,8 +124,7 @@ const DemandForecast& ProtectionPeriod::day_forecast(size_t i, int d) const {
 }
 
 bool ProtectionPeriod::plain(size_t i) const {
-  return lead_ == 1 && days_[i] == 1 &&
-         (!scenario_.items[i].next_day || in_[i].discounted == 0);
+  return lead_ == 1 && days_[i] == 1 && (!scenario_.items[i].next_day || in_[i].discounted == 0);
 }
 
 DemandForecast ProtectionPeriod::demand(size_t i) const {
@@ -150,13 +149,12 @@ DemandForecast ProtectionPeriod::demand(size_t i) const {
       for (size_t d = 0; d < withdrawals.size(); ++d) {
         withdrawals[d] = std::max(day_forecast(i, static_cast<int>(d)).mean, 0.0);
       }
-      expected_outdating(x.stock_by_age, x.pipeline, item.shelf_life_days, withdrawals,
-                         fifo_share_, leaving);
+      expected_outdating(x.stock_by_age, x.pipeline, item.shelf_life_days, withdrawals, fifo_share_,
+                         leaving);
       shown = leaving.back();
     }
-    const DemandForecast& arrival = lead_ == 1 && x.cover_days <= 1
-                                        ? x.forecast
-                                        : day_forecast(i, lead_ - 1);
+    const DemandForecast& arrival =
+        lead_ == 1 && x.cover_days <= 1 ? x.forecast : day_forecast(i, lead_ - 1);
     sum.mean -= discount_netting(arrival, item.demand.family, take_rate_, shown);
   }
   sum.mean = std::max(sum.mean, 0.0);
@@ -165,13 +163,13 @@ DemandForecast ProtectionPeriod::demand(size_t i) const {
 
 int ProtectionPeriod::order_to(size_t i, long target) {
   const OrderInput& x = in_[i];
-  if (plain(i)) return static_cast<int>(std::clamp(target - x.usable_stock - x.on_order, 0L, 2000000000L));
+  if (plain(i))
+    return static_cast<int>(std::clamp(target - x.usable_stock - x.on_order, 0L, 2000000000L));
   const int life = scenario_.items[i].shelf_life_days;
   const int days = days_[i];
   withdrawals_.assign(static_cast<size_t>(days), 0.0);
   for (int d = 0; d < days; ++d) {
-    withdrawals_[static_cast<size_t>(d)] =
-        std::max(day_forecast(i, d).mean, 0.0);
+    withdrawals_[static_cast<size_t>(d)] = std::max(day_forecast(i, d).mean, 0.0);
   }
   // Stock by age and arrivals; without an age profile, usable stock counts as fresh and units
   // on order as arriving tomorrow.
@@ -237,8 +235,8 @@ void ProtectionPeriod::carry(size_t i) {
   const Item& item = scenario_.items[i];
   carried_.clear();
   if (lead_ == 1) {
-    carried_.push_back({static_cast<double>(x.usable_stock + x.on_order),
-                        static_cast<double>(x.discounted), 1.0});
+    carried_.push_back(
+        {static_cast<double>(x.usable_stock + x.on_order), static_cast<double>(x.discounted), 1.0});
     return;
   }
   const int life = item.shelf_life_days;
@@ -255,8 +253,8 @@ void ProtectionPeriod::carry(size_t i) {
     for (std::int32_t s : stock_) total += s;
     const long last = stock_.empty() ? 0 : (life == 1 ? first_arrival : stock_[0]);
     const DemandForecast& f = day_forecast(i, 0);
-    const CountLaw law = CountLaw::from_moments(item.demand.family, std::max(f.mean, 0.0),
-                                                f.variance);
+    const CountLaw law =
+        CountLaw::from_moments(item.demand.family, std::max(f.mean, 0.0), f.variance);
     double cdf = 0.0;
     for (long d = 0;; ++d) {
       const double next = d >= total ? 1.0 : law.cdf(static_cast<int>(d));
@@ -271,8 +269,7 @@ void ProtectionPeriod::carry(size_t i) {
             std::min(last, static_cast<long>(k) + std::max(0L, fresh - (total - last)));
         const long left_last = last - from_last;
         carried_.push_back({static_cast<double>(total - sold - left_last),
-                            item.next_day ? static_cast<double>(left_last) : 0.0,
-                            pd * split[k]});
+                            item.next_day ? static_cast<double>(left_last) : 0.0, pd * split[k]});
       }
       if (d >= total || 1.0 - cdf < 1e-9) break;
     }
@@ -303,8 +300,7 @@ double ProtectionPeriod::window_outdating(size_t i, long q) {
   withdrawals_.assign(static_cast<size_t>(days), 0.0);
   leaving_.assign(static_cast<size_t>(days), 0.0);
   for (int d = 0; d < days; ++d) {
-    withdrawals_[static_cast<size_t>(d)] =
-        std::max(day_forecast(i, d).mean, 0.0);
+    withdrawals_[static_cast<size_t>(d)] = std::max(day_forecast(i, d).mean, 0.0);
   }
   const OrderInput& x = in_[i];
   stock_.assign(x.stock_by_age.begin(), x.stock_by_age.end());
@@ -313,7 +309,8 @@ double ProtectionPeriod::window_outdating(size_t i, long q) {
     stock_.back() = x.usable_stock;
   }
   arrivals_.assign(static_cast<size_t>(days), 0);
-  for (size_t d = 0; d < x.pipeline.size() && d < arrivals_.size(); ++d) arrivals_[d] = x.pipeline[d];
+  for (size_t d = 0; d < x.pipeline.size() && d < arrivals_.size(); ++d)
+    arrivals_[d] = x.pipeline[d];
   arrivals_[static_cast<size_t>(lead_ - 1)] += static_cast<std::int32_t>(std::min(q, 2000000000L));
   expected_outdating(stock_, arrivals_, life, withdrawals_, fifo_share_, leaving_);
   double o = 0.0;

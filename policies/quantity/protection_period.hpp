@@ -55,8 +55,7 @@ double expected_outdating(std::span<const std::int32_t> stock_by_age,
 /// take on average (model.md, step 3). For Poisson D, A is Poisson(take_rate * mean) exactly
 /// (thinning); for the other families A is taken with the same family and moments
 /// mean_A = take_rate * mean, var_A = take_rate^2 * var + take_rate (1 - take_rate) * mean.
-double discount_netting(const DemandForecast& day, DemandFamily family, double take_rate,
-                        double x);
+double discount_netting(const DemandForecast& day, DemandFamily family, double take_rate, double x);
 
 /// Per-store scratch of the rules that order from the perishable inventory position.
 class ProtectionPeriod {
