@@ -5,6 +5,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/progress.hpp"
+#include "policies/quantity/rule_warnings.hpp"
 #include "sim/runner/memory_limit.hpp"
 #include "sim/runner/run_estimate.hpp"
 #include "sim/scenario/scenario_warnings.hpp"
@@ -56,6 +57,7 @@ int check_command(const CommonOptions& args) {
   const Scenario& sc = prepared.scenario;
   for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
   for (const std::string& w : setting_warnings(sc)) fmt::print(stderr, "{}\n", w);
+  for (const std::string& w : rule_warnings(sc)) fmt::print(stderr, "{}\n", w);
   const int threads = args.threads > 0
                           ? args.threads
                           : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));

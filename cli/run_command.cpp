@@ -8,6 +8,7 @@
 #include "cli/mpi_world.hpp"
 #include "cli/progress.hpp"
 #include "cli/run_outputs.hpp"
+#include "policies/quantity/rule_warnings.hpp"
 #include "reports/atomic_file.hpp"
 #include "reports/html_report.hpp"
 #include "reports/output_claim.hpp"
@@ -53,6 +54,7 @@ int run_command(const RunArgs& args) {
   if (!args.common.quiet) {
     for (const std::string& w : scenario_warnings(sc)) fmt::print(stderr, "{}\n", w);
     for (const std::string& w : setting_warnings(sc)) fmt::print(stderr, "{}\n", w);
+    for (const std::string& w : rule_warnings(sc)) fmt::print(stderr, "{}\n", w);
   }
   if (!sc.seed_given && !args.common.quiet) {
     fmt::print(stderr, "seed {} was drawn at random; pass --seed {} to repeat this run\n", sc.seed,

@@ -21,6 +21,7 @@
 #include <string>
 
 #include "policies/quantity/item_chain.hpp"
+#include "policies/quantity/rule_warnings.hpp"
 #include "tests/fixture.hpp"
 
 namespace larder {
@@ -164,6 +165,35 @@ TEST_CASE("at a next-day discount critical_fractile earns at least the best fixe
   INFO("cf - " << sc.policies[static_cast<size_t>(best_policy)].name << " = " << d.mean << " +- "
                << d.stderr_);
   CHECK(d.mean >= -4.0 * d.stderr_);
+}
+
+}  // namespace
+}  // namespace larder
+
+namespace larder {
+namespace {
+
+TEST_CASE("check warns where a rule is known to be poor for an item", "[mdp][quantity]") {
+  const Scenario sc = test::scenario_from(R"(
+format: 1
+name: warn
+seed: 1
+stores: [ { id: s } ]
+items:
+  - { id: bread, price: 3, unit_cost: 1, demand: { base: 20 } }
+  - { id: bun, price: 3, unit_cost: 1, leftovers: discount_next_day, next_day: { price: 1.5 }, demand: { base: 20 } }
+  - { id: cheese, price: 3, unit_cost: 1, shelf_life_days: 10, demand: { base: 200 } }
+policies:
+  - { name: bs, forecast: { method: oracle }, quantity: { rule: base_stock, level: 20 } }
+  - { name: cf, forecast: { method: oracle }, quantity: { rule: critical_fractile } }
+)");
+  const auto w = rule_warnings(sc);
+  // base_stock does not net bun's discounted units; cheese's chain is far too large (life 10,
+  // about 220 units a day); bread is the plain newsvendor and bun's chain fits.
+  REQUIRE(w.size() == 2);
+  CHECK(w[0].find("policy 'bs': base_stock's level does not net item 'bun'") != std::string::npos);
+  CHECK(w[1].find("policy 'cf': item 'cheese''s leftover recovery value is approximated") !=
+        std::string::npos);
 }
 
 }  // namespace

@@ -71,8 +71,11 @@ std::vector<double> read_critical_ratios(PartContext& ctx, std::span<const Deman
 void register_critical_fractile(PolicyRegistry& r) {
   r.quantities.add(
       {"critical_fractile",
-       "newsvendor: smallest Q with P(D <= Q) >= (p - c + g) / (p - s + g) from item economics "
-       "(penalty: overrides the items' stockout_penalty; assume: family)",
+       "the recommended rule; newsvendor on the perishable inventory position: smallest Q "
+       "with P(D <= X + Q) >= (p - c + g) / (p - s + g), X the stock carried into the arrival "
+       "day, s what a leftover really brings (measured on the item's exact chain for items "
+       "that keep, lead times above 1 and next-day discounts; README 'Ordering beyond one "
+       "day') (penalty: overrides the items' stockout_penalty; assume: family)",
        [](PartContext& ctx) -> std::unique_ptr<QuantityMethod> {
          auto family = read_assume(ctx);
          auto ratio = read_critical_ratios(ctx, family);
