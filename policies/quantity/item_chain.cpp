@@ -6,40 +6,10 @@
 #include <stdexcept>
 
 #include "sim/engine/price_tiers.hpp"
+#include "sim/stats/binomial.hpp"
 #include "sim/stats/count_law.hpp"
-#include "sim/stats/log_gamma.hpp"
 
 namespace larder {
-
-namespace {
-
-/// P(X = k), k = 0..n, X ~ Binomial(n, p), by the ratio recurrence from the mode's side that
-/// cannot underflow for the small n of one day's sales.
-std::vector<double> binomial_row(int n, double p) {
-  std::vector<double> row(static_cast<size_t>(n) + 1, 0.0);
-  if (p <= 0.0) {
-    row[0] = 1.0;
-    return row;
-  }
-  if (p >= 1.0) {
-    row.back() = 1.0;
-    return row;
-  }
-  // log P(X = k) = lgamma terms; the row is normalised afterwards.
-  double top = -std::numeric_limits<double>::infinity();
-  std::vector<double> lg(row.size());
-  for (int k = 0; k <= n; ++k) {
-    lg[static_cast<size_t>(k)] = log_gamma(n + 1.0) - log_gamma(k + 1.0) - log_gamma(n - k + 1.0) +
-                                 k * std::log(p) + (n - k) * std::log1p(-p);
-    top = std::max(top, lg[static_cast<size_t>(k)]);
-  }
-  double sum = 0.0;
-  for (size_t k = 0; k < row.size(); ++k) sum += row[k] = std::exp(lg[k] - top);
-  for (double& x : row) x /= sum;
-  return row;
-}
-
-}  // namespace
 
 std::vector<double> truncated_pmf(DemandFamily family, double mean, double variance) {
   const CountLaw law = CountLaw::from_moments(family, std::max(mean, 0.0), variance);
@@ -112,7 +82,7 @@ ItemChain::Morning ItemChain::simulate_day(std::span<const int> shelf, int disco
     const int demand = static_cast<int>(d);
     const bool tiers = c.discount_tier && discounted > 0;
     const std::vector<double> acceptors =
-        tiers ? binomial_row(demand, c.take_rate) : std::vector<double>{1.0};
+        tiers ? binomial_pmf(demand, c.take_rate) : std::vector<double>{1.0};
     for (size_t a = 0; a < acceptors.size(); ++a) {
       const double pa = pd * acceptors[a];
       if (pa <= 0.0) continue;
@@ -122,7 +92,7 @@ ItemChain::Morning ItemChain::simulate_day(std::span<const int> shelf, int disco
       const double base_reward =
           c.price * t.full + c.discount_price * t.discounted - c.stockout_penalty * lost;
       // Oldest-first customers: Binomial(sold, fifo_share), deterministic at 0 and 1.
-      const std::vector<double> split = binomial_row(t.full, c.fifo_share);
+      const std::vector<double> split = binomial_pmf(t.full, c.fifo_share);
       for (size_t k = 0; k < split.size(); ++k) {
         const double pk = pa * split[k];
         if (pk <= 0.0) continue;

@@ -5,8 +5,8 @@
 #include <numeric>
 
 #include "policies/quantity/fractile_rule.hpp"
+#include "sim/stats/binomial.hpp"
 #include "sim/stats/count_law.hpp"
-#include "sim/stats/log_gamma.hpp"
 
 namespace larder {
 
@@ -203,23 +203,6 @@ int ProtectionPeriod::order_to(size_t i, long target) {
 }
 
 namespace {
-/// P(Binomial(n, p) = k), k = 0..n (log space, then normalised).
-std::vector<double> binomial_pmf(int n, double p) {
-  std::vector<double> row(static_cast<size_t>(n) + 1, 0.0);
-  if (p <= 0.0 || p >= 1.0 || n == 0) {
-    row[p >= 1.0 ? row.size() - 1 : 0] = 1.0;
-    return row;
-  }
-  double sum = 0.0;
-  for (int k = 0; k <= n; ++k) {
-    const double l = log_gamma(n + 1.0) - log_gamma(k + 1.0) - log_gamma(n - k + 1.0) +
-                     k * std::log(p) + (n - k) * std::log1p(-p);
-    sum += row[static_cast<size_t>(k)] = std::exp(l);
-  }
-  for (double& x : row) x /= sum;
-  return row;
-}
-
 /// F(x) of a count law at a real x: linear between the integers around it (0 below 0).
 double cdf_at(const std::vector<double>& cdf, double x) {
   if (x < 0.0) return 0.0;

@@ -61,4 +61,20 @@ int binomial_inverse(double u, int n, double p, double log_q) {
   return k;
 }
 
+std::vector<double> binomial_pmf(int n, double p) {
+  std::vector<double> row(static_cast<size_t>(n) + 1, 0.0);
+  if (p <= 0.0 || p >= 1.0 || n == 0) {
+    row[p >= 1.0 ? row.size() - 1 : 0] = 1.0;
+    return row;
+  }
+  double sum = 0.0;
+  for (int k = 0; k <= n; ++k) {
+    const double l = log_gamma(n + 1.0) - log_gamma(k + 1.0) - log_gamma(n - k + 1.0) +
+                     k * std::log(p) + (n - k) * std::log1p(-p);
+    sum += row[static_cast<size_t>(k)] = std::exp(l);
+  }
+  for (double& x : row) x /= sum;
+  return row;
+}
+
 }  // namespace larder

@@ -37,3 +37,16 @@ TEST_CASE("binomial_inverse edge cases", "[stats][binomial]") {
 
 }  // namespace
 }  // namespace larder
+
+namespace larder {
+namespace {
+TEST_CASE("binomial_pmf: the textbook formula C(n, k) p^k (1 - p)^(n - k), by hand", "[stats]") {
+  const auto row = binomial_pmf(5, 0.3);
+  REQUIRE(row.size() == 6);
+  CHECK(row[2] == Approx(10 * 0.09 * 0.343).epsilon(1e-12));  // 0.3087
+  CHECK(row[0] == Approx(0.16807).epsilon(1e-12));            // 0.7^5
+  CHECK(binomial_pmf(4, 1.0)[4] == 1.0);
+  CHECK(binomial_pmf(4, 0.0)[0] == 1.0);
+}
+}  // namespace
+}  // namespace larder
