@@ -192,7 +192,7 @@ policies:
   // about 220 units a day); bread is the plain newsvendor and bun's chain fits.
   REQUIRE(w.size() == 2);
   CHECK(w[0].find("policy 'bs': base_stock's level does not net item 'bun'") != std::string::npos);
-  CHECK(w[1].find("policy 'cf': item 'cheese''s leftover recovery value is approximated") !=
+  CHECK(w[1].find("item 'cheese': the leftover recovery value of policies 'cf' is approximated") !=
         std::string::npos);
 }
 
