@@ -10,6 +10,7 @@
 #include "cli/commands.hpp"
 #include "policies/policy.hpp"
 #include "reports/atomic_file.hpp"
+#include "reports/comparison.hpp"
 #include "reports/html_report.hpp"
 #include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
@@ -80,6 +81,7 @@ int merge_command(const MergeArgs& args) {
   }
   std::fflush(stdout);
   if (!args.quiet) {
+    for (const std::string& w : target_warnings(merged)) fmt::print(stderr, "{}\n", w);
     fmt::print(stderr, "merged {} shard files ({} replications) into {}\n", shards.size(),
                merged.info.replications, dir.string());
   }

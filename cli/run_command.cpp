@@ -10,6 +10,7 @@
 #include "cli/run_outputs.hpp"
 #include "policies/quantity/rule_warnings.hpp"
 #include "reports/atomic_file.hpp"
+#include "reports/comparison.hpp"
 #include "reports/html_report.hpp"
 #include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
@@ -135,6 +136,9 @@ int run_command(const RunArgs& args) {
     fmt::print("{}", comparison_table(result));
   }
   std::fflush(stdout);
+  if (outcome.show_results && !args.common.quiet) {
+    for (const std::string& w : target_warnings(result)) fmt::print(stderr, "{}\n", w);
+  }
   if (!args.common.quiet || outcome.exit_code != 0) fmt::print(stderr, "{}\n", outcome.note);
   return outcome.exit_code;
 }

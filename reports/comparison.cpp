@@ -87,4 +87,36 @@ std::vector<PlanGroupRow> plan_group_rows(const RunResult& result, std::size_t p
   return rows;
 }
 
+std::optional<TargetCheck> target_check(const RunResult& result, std::size_t policy) {
+  if (policy >= result.breakdown.size()) return std::nullopt;
+  const double target = result.breakdown[policy].network_target;
+  if (!std::isfinite(target)) return std::nullopt;
+  return TargetCheck{target,
+                     policy_estimate(result, static_cast<int>(policy), Metric::in_stock_at_close)};
+}
+
+std::string target_text(const TargetCheck& check) {
+  const double points = check.points();
+  return fmt::format("target {}% -> achieved {:.1f}% ({}{:.1f} points)",
+                     fmt::format("{:.4g}", 100.0 * check.target), 100.0 * check.achieved.mean,
+                     points >= 0.0 ? "+" : "-", std::abs(points));
+}
+
+std::vector<std::string> target_warnings(const RunResult& result) {
+  std::vector<std::string> out;
+  for (size_t p = 0; p < result.breakdown.size(); ++p) {
+    const std::optional<TargetCheck> check = target_check(result, p);
+    if (!check || !check->missed()) continue;
+    out.push_back(fmt::format(
+        "warning: {} misses its network in-stock target: {}, beyond its 95% interval ({:.1f}% to "
+        "{:.1f}%). "
+        "The plans calibrate themselves on what the stores see at their closes; a short horizon, "
+        "few re-plans or a long warm-up leave them less to learn from (README, \"Network plans "
+        "for items that keep\").",
+        result.policies[p], target_text(*check), 100.0 * check->achieved.ci_low,
+        100.0 * check->achieved.ci_high));
+  }
+  return out;
+}
+
 }  // namespace larder

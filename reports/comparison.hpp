@@ -4,6 +4,7 @@
 // baseline with a verdict in plain words. summary.json and the terminal table share these so
 // they always agree.
 
+#include <optional>
 #include <span>
 #include <string>
 #include <string_view>
@@ -78,5 +79,25 @@ struct PlanGroupRow {
 
 /// The plan groups of policy `policy` (empty unless it is network-planned).
 std::vector<PlanGroupRow> plan_group_rows(const RunResult& result, std::size_t policy);
+
+/// A network plan's promise kept or missed: its network in-stock target against the in-stock
+/// share at close achieved over the scored days (mean over replications, 95% interval).
+struct TargetCheck {
+  double target = 0.0;
+  Estimate achieved;
+  /// Achieved minus target, in percentage points.
+  double points() const { return 100.0 * (achieved.mean - target); }
+  /// Missed by more than its interval: the whole 95% interval lies below the target.
+  bool missed() const { return achieved.ci_high < target; }
+};
+
+/// Policy `policy`'s target check, or none when it is not network-planned.
+std::optional<TargetCheck> target_check(const RunResult& result, std::size_t policy);
+
+/// "target 75% -> achieved 71.0% (-4.0 points)".
+std::string target_text(const TargetCheck& check);
+
+/// One warning per network-planned policy that missed its target beyond its interval.
+std::vector<std::string> target_warnings(const RunResult& result);
 
 }  // namespace larder

@@ -127,6 +127,15 @@ std::string html_plan_group_section(const RunResult& result) {
     const std::vector<PlanGroupRow> rows = plan_group_rows(result, p);
     if (rows.empty()) continue;
     content += fmt::format("<h3>{}</h3>\n", xml_escape(result.policies[p]));
+    if (const auto check = target_check(result, p)) {
+      content += html_paragraph(
+          check->missed()
+              ? fmt::format("{}: missed beyond its 95% interval ({:.1f}% to {:.1f}%).",
+                            target_text(*check), 100.0 * check->achieved.ci_low,
+                            100.0 * check->achieved.ci_high)
+              : fmt::format("{} (95% interval {:.1f}% to {:.1f}%).", target_text(*check),
+                            100.0 * check->achieved.ci_low, 100.0 * check->achieved.ci_high));
+    }
     content +=
         html_details(fmt::format("{} plan group{}", rows.size(), rows.size() == 1 ? "" : "s"),
                      plan_group_table(result, p, rows), rows.size() <= kOpenRows);

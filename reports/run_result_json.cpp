@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
 #include <stdexcept>
 
 #include "reports/exact_json_number.hpp"
@@ -66,7 +67,9 @@ json breakdown_json(const PolicyBreakdown& b) {
           {"first_group", b.first_group},
           {"values", each_json(b.values, rows_json)},
           {"planned_level", each_json(b.planned_level, numbers_json)},
-          {"planned_in_stock", each_json(b.planned_in_stock, numbers_json)}};
+          {"planned_in_stock", each_json(b.planned_in_stock, numbers_json)},
+          {"network_target",
+           std::isfinite(b.network_target) ? exact_json_number(b.network_target) : json()}};
 }
 
 json metric_names(const std::vector<Metric>& metrics) {
@@ -167,6 +170,14 @@ PolicyBreakdown breakdown_from(const json& j, size_t reps, const std::vector<Met
   }
   for (const json& r : array_of(in_stock, planned_reps, what + " planned in-stock")) {
     b.planned_in_stock.push_back(numbers_from(r, groups, what + " planned in-stock"));
+  }
+  const auto target = j.find("network_target");
+  if (target != j.end() && !target->is_null()) {
+    const double t = exact_json_number_value(*target);
+    if (!(t > 0.0) || !(t < 1.0)) {
+      throw std::runtime_error(what + ": network_target must be a share between 0 and 1");
+    }
+    b.network_target = t;
   }
   return b;
 }

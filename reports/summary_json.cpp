@@ -51,8 +51,16 @@ nlohmann::json summary_json(const RunResult& result) {
     for (Metric m : result.metrics) {
       per_metric[metric_key(m)] = estimate_json(policy_estimate(result, p, m));
     }
-    policies.push_back(
-        {{"name", result.policies[static_cast<size_t>(p)]}, {"metrics", std::move(per_metric)}});
+    nlohmann::json entry = {{"name", result.policies[static_cast<size_t>(p)]},
+                            {"metrics", std::move(per_metric)}};
+    if (const auto check = target_check(result, static_cast<size_t>(p))) {
+      entry["network_target"] = {{"target", check->target},
+                                 {"achieved_in_stock", estimate_json(check->achieved)},
+                                 {"points", check->points()},
+                                 {"missed", check->missed()},
+                                 {"text", target_text(*check)}};
+    }
+    policies.push_back(std::move(entry));
   }
   j["policies"] = std::move(policies);
 

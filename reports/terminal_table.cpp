@@ -169,11 +169,18 @@ std::string difference_block(const RunResult& result, int policy,
   return heading(difference_title(result, policy), color) + block.render(color);
 }
 
-/// A network_in_stock policy's plan groups (up to 12): planned level, the in-stock the plans
-/// expected, and the in-stock achieved. Empty for other policies.
+/// A network_in_stock policy's promise (target against achieved) and its plan groups (up to
+/// 12): planned level, the in-stock the plans expected, and the in-stock achieved. Empty for
+/// other policies.
 std::string plan_group_block(const RunResult& result, size_t policy, bool color) {
+  const std::optional<TargetCheck> check = target_check(result, policy);
+  if (!check) return {};
+  std::string out = heading(
+      fmt::format("{}: network plan, mean over replications", result.policies[policy]), color);
+  out += fmt::format("{}{}\n", target_text(*check),
+                     check->missed() ? " - missed beyond its 95% interval" : "");
   const std::vector<PlanGroupRow> rows = plan_group_rows(result, policy);
-  if (rows.empty() || rows.size() > 12) return {};
+  if (rows.empty() || rows.size() > 12) return out;
   TextBlock block({Align::left, Align::right, Align::right, Align::right});
   block.add_row(
       {{"group", {}}, {"planned level", {}}, {"expected in stock", {}}, {"in stock at close", {}}});
@@ -184,9 +191,7 @@ std::string plan_group_block(const RunResult& result, size_t policy, bool color)
                    {pct(row.planned_in_stock), {}},
                    {pct(row.in_stock_at_close), {}}});
   }
-  return heading(fmt::format("{}: plan groups, mean over replications", result.policies[policy]),
-                 color) +
-         block.render(color);
+  return out + block.render(color);
 }
 
 }  // namespace

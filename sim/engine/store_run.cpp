@@ -96,6 +96,7 @@ struct StoreRun::Lane {
         pipeline_view(static_cast<size_t>(items * lead), 0),
         observed(static_cast<size_t>(items)),
         tally(static_cast<size_t>(items)),
+        closes(p.quantity->network() != nullptr ? static_cast<size_t>(items) : 0),
         goodwill(static_cast<size_t>(items), 1.0),
         demand(static_cast<size_t>(items), 0),
         predicted(static_cast<size_t>(items)),
@@ -117,6 +118,7 @@ struct StoreRun::Lane {
   std::vector<std::int32_t> pipeline_view;  ///< [item * lead + d]: arrives order_day + 1 + d
   std::vector<Observation> observed;        ///< today's observations
   std::vector<Tally> tally;                 ///< scored-day counts
+  std::vector<CloseCount> closes;           ///< every day's, for network plans only
   std::vector<double> goodwill;             ///< per item, 1 = no erosion (model.md, goodwill)
   std::vector<int> demand;  ///< per item, when goodwill makes demand policy-specific
   // Detailed path only.
@@ -137,9 +139,10 @@ struct StoreRun::Lane {
   /// Heap bytes of the lane's own buffers (not its policy parts').
   std::size_t bytes() const {
     return sizeof(Lane) + shelf.bytes() + held(pipeline) + held(pipeline_view) + held(observed) +
-           held(tally) + held(goodwill) + held(demand) + held(next_day) + held(substituted) +
-           held(acceptors) + held(others) + held(pools) + held(sold_by_hour) + held(predicted) +
-           held(forecast) + held(day_forecast) + held(estimates) + held(inputs) + held(orders);
+           held(tally) + held(closes) + held(goodwill) + held(demand) + held(next_day) +
+           held(substituted) + held(acceptors) + held(others) + held(pools) + held(sold_by_hour) +
+           held(predicted) + held(forecast) + held(day_forecast) + held(estimates) + held(inputs) +
+           held(orders);
   }
 };
 
@@ -292,6 +295,10 @@ StoreRun::~StoreRun() = default;
 
 std::span<const Tally> StoreRun::tallies(int policy) const {
   return lanes_[static_cast<size_t>(policy)]->tally;
+}
+
+std::span<const CloseCount> StoreRun::close_counts(int policy) const {
+  return lanes_[static_cast<size_t>(policy)]->closes;
 }
 
 std::span<const std::int64_t> StoreRun::substitutions(int policy) const {
@@ -761,6 +768,10 @@ void StoreRun::learn(Lane& lane, int day, bool open) {
     if (lane.censoring->needs_forecast()) lane.forecaster->predict(day, lane.predicted);
     lane.censoring->treat(day, lane.observed, lane.predicted, lane.estimates);
     lane.forecaster->observe(day, lane.estimates);
+    for (size_t i = 0; i < lane.closes.size(); ++i) {
+      lane.closes[i].open_days += 1;
+      lane.closes[i].in_stock_days += lane.observed[i].leftover > 0 ? 1 : 0;
+    }
   }
   lane.rule->observe(day, lane.observed);
   for (auto& a : lane.adjusters) a->observe(day, lane.observed);

@@ -24,6 +24,13 @@ namespace larder {
 enum class DayDetail : unsigned char { automatic, one_bucket, hourly };
 
 /// Immutable inputs shared by every store run of a simulation.
+/// What a store sees of one item at its closes: open days, and open days with a unit left at
+/// close (every day from day 0, warm-up included).
+struct CloseCount {
+  std::int64_t open_days = 0;
+  std::int64_t in_stock_days = 0;
+};
+
 struct SimSetup {
   const Scenario& scenario;
   const DemandModel& demand;
@@ -46,6 +53,9 @@ class StoreRun {
   /// Scored-day units sold to substitute customers of one policy, one per substitution pair in
   /// the order of `substitution_pairs`.
   std::span<const std::int64_t> substitutions(int policy) const;
+  /// One network-planned policy's close counts so far, one per item (empty for other policies):
+  /// what a network plan learns its calibration from.
+  std::span<const CloseCount> close_counts(int policy) const;
   /// Today's observations of one policy, one per item (after the day has run).
   std::span<const Observation> observations(int policy) const;
   /// Units of an item on hand after the close under one policy: the shelf and the next-day tier.

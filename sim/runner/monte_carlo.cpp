@@ -7,8 +7,10 @@
 #include <chrono>
 #include <thread>
 
+#include "policies/network/level_curve.hpp"
 #include "sim/engine/store_run.hpp"
 #include "sim/runner/breakdown.hpp"
+#include "sim/runner/level_corrections.hpp"
 #include "sim/runner/network_phases.hpp"
 #include "sim/runner/parallel_tasks.hpp"
 #include "sim/runner/store_tallies.hpp"
@@ -103,6 +105,7 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
     if (net != nullptr) {
       result.breakdown[p].first_group =
           result.breakdown[p].keys.size() - static_cast<size_t>(dimensions[p].maps.back().count());
+      result.breakdown[p].network_target = net->target;
     }
   }
 
@@ -121,6 +124,10 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
       budget / std::max<std::size_t>(per_task * static_cast<size_t>(stores), 1), 1,
       static_cast<size_t>(std::max(threads * 4, 8))));
 
+  // What items that keep do to the network plans' level curves, measured once for the run.
+  const PlanCorrections corrections =
+      phased ? level_corrections(scenario, policies, default_levels(), threads) : PlanCorrections{};
+
   // Allow exactly `threads` workers, even beyond the core count (tests use that to show the
   // results do not depend on scheduling).
   const tbb::global_control allow(tbb::global_control::max_allowed_parallelism,
@@ -133,7 +140,8 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
     std::vector<StoreTallies> slots(static_cast<size_t>(n * stores));
     std::vector<std::vector<PlanRecord>> plans;
     if (phased) {
-      PhasedOutput out = run_in_phases(setup, options.first_replication + done, n, arena);
+      PhasedOutput out =
+          run_in_phases(setup, options.first_replication + done, n, arena, corrections);
       slots = std::move(out.tallies);
       plans = std::move(out.plans);
     } else {

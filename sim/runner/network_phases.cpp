@@ -2,6 +2,8 @@
 
 #include <algorithm>
 
+#include "policies/network/level_curve.hpp"
+#include "sim/runner/level_corrections.hpp"
 #include "sim/runner/parallel_tasks.hpp"
 
 namespace larder {
@@ -14,14 +16,22 @@ std::vector<int> network_policies(std::span<const Policy> policies) {
   return out;
 }
 
-PhasedRuns::PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena)
+PhasedRuns::PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena,
+                       const PlanCorrections* corrections)
     : setup_(setup),
       arena_(arena),
       n_reps_(n_reps),
       stores_(static_cast<int>(setup.scenario.stores.size())),
       planned_(network_policies(setup.policies)),
       runs_(static_cast<size_t>(n_reps * stores_)),
-      records_(static_cast<size_t>(n_reps), std::vector<PlanRecord>(setup.policies.size())) {
+      records_(static_cast<size_t>(n_reps), std::vector<PlanRecord>(setup.policies.size())),
+      corrections_(corrections),
+      feedback_(static_cast<size_t>(n_reps), std::vector<Feedback>(setup.policies.size())) {
+  if (corrections_ == nullptr) {
+    own_corrections_ = level_corrections(setup.scenario, setup.policies, default_levels(),
+                                         arena.max_concurrency());
+    corrections_ = &own_corrections_;
+  }
   arena_.execute([&] {
     parallel_tasks(n_reps_ * stores_, [&](int task) {
       runs_[static_cast<size_t>(task)] =
@@ -45,12 +55,38 @@ NetworkPlan PhasedRuns::plan(int rep, int policy, bool detail) const {
     in.forecasts.resize(in.days.size() * n_items);
     run.forecasts(policy, in.days, in.forecasts);
   }
-  return plan_network(sc, target, inputs, detail);
+  PlanLearning learning;
+  learning.correction = (*corrections_)[static_cast<size_t>(policy)];
+  learning.calibration =
+      feedback_[static_cast<size_t>(rep)][static_cast<size_t>(policy)].calibration;
+  return plan_network(sc, target, inputs, learning, detail);
 }
 
 void PhasedRuns::replan(int rep, int policy) {
-  const NetworkPlan p = plan(rep, policy, false);
   const size_t n_items = setup_.scenario.items.size();
+  // The closes since the last plan, by the group that plan expected them in.
+  Feedback& f = feedback_[static_cast<size_t>(rep)][static_cast<size_t>(policy)];
+  const bool first = f.expected.empty();
+  if (first) f.seen.assign(static_cast<size_t>(stores_) * n_items, CloseCount{});
+  std::vector<std::int64_t> open(f.expected.size(), 0);
+  std::vector<std::int64_t> in_stock(f.expected.size(), 0);
+  for (int s = 0; s < stores_; ++s) {
+    const auto counts = runs_[static_cast<size_t>(rep * stores_ + s)]->close_counts(policy);
+    for (size_t i = 0; i < n_items; ++i) {
+      const size_t k = static_cast<size_t>(s) * n_items + i;
+      if (!first) {
+        const auto g = static_cast<size_t>(f.group_of[k]);
+        open[g] += counts[i].open_days - f.seen[k].open_days;
+        in_stock[g] += counts[i].in_stock_days - f.seen[k].in_stock_days;
+      }
+      f.seen[k] = counts[i];
+    }
+  }
+  for (size_t g = 0; g < open.size(); ++g) f.closes.add(f.expected[g], open[g], in_stock[g]);
+  f.calibration = f.closes.fit();
+  const NetworkPlan p = plan(rep, policy, false);
+  f.expected = p.group_raw_in_stock;
+  f.group_of = p.groups.of_store_item;
   // Plans on scored days make the record; until the first one, every plan does.
   PlanRecord& r = records_[static_cast<size_t>(rep)][static_cast<size_t>(policy)];
   const bool scored = day_ >= setup_.scenario.horizon.warmup_days;
@@ -103,9 +139,9 @@ std::vector<StoreTallies> PhasedRuns::tallies() const {
   return out;
 }
 
-PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
-                           tbb::task_arena& arena) {
-  PhasedRuns runs(setup, first_rep, n_reps, arena);
+PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena,
+                           const PlanCorrections& corrections) {
+  PhasedRuns runs(setup, first_rep, n_reps, arena, &corrections);
   runs.run_until(setup.scenario.horizon.days);
   return {runs.tallies(), runs.plans()};
 }

@@ -28,14 +28,24 @@ struct PlanRecord {
   int scored_plans = 0;
 };
 
-/// Every store of a batch of replications, run in phases between re-plans.
+/// Per policy, per item: the level corrections of the network-planned policies
+/// (level_corrections.hpp).
+using PlanCorrections = std::vector<std::vector<LevelCorrection>>;
+
+/// Every store of a batch of replications, run in phases between re-plans. Each plan of a
+/// replication learns from the closes its stores have seen since day 0: the in-stock
+/// calibration (in_stock_calibration.hpp) of what the earlier plans expected against what the
+/// stores saw.
 class PhasedRuns {
  public:
-  /// Replications first_rep .. first_rep + n_reps - 1, every store, at day 0.
-  PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena);
+  /// Replications first_rep .. first_rep + n_reps - 1, every store, at day 0. `corrections`
+  /// (level_corrections(), measured once per run) are measured here when not given.
+  PhasedRuns(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena,
+             const PlanCorrections* corrections = nullptr);
   /// Runs every store up to `day` (exclusive), re-planning at each re-plan day on the way.
   void run_until(int day);
-  /// The plan policy `policy` would make for replication `first_rep + rep` on day `day_`.
+  /// The plan policy `policy` would make for replication `first_rep + rep` on day `day_`, with
+  /// the calibration learned up to its last re-plan.
   NetworkPlan plan(int rep, int policy, bool detail) const;
   /// The run of store `store` in replication `first_rep + rep` (after run_until: its last day).
   const StoreRun& run(int rep, int store) const {
@@ -49,6 +59,15 @@ class PhasedRuns {
  private:
   void replan(int rep, int policy);
 
+  /// What one policy's plans in one replication learned from the closes.
+  struct Feedback {
+    CloseRecord closes;
+    InStockCalibration calibration;
+    std::vector<int> group_of;     ///< the last plan's group per store-item
+    std::vector<double> expected;  ///< the last plan's raw in-stock per group
+    std::vector<CloseCount> seen;  ///< per store-item: counts at the last plan
+  };
+
   const SimSetup& setup_;
   tbb::task_arena& arena_;
   int n_reps_;
@@ -57,6 +76,9 @@ class PhasedRuns {
   std::vector<int> planned_;
   std::vector<std::unique_ptr<StoreRun>> runs_;
   std::vector<std::vector<PlanRecord>> records_;
+  PlanCorrections own_corrections_;
+  const PlanCorrections* corrections_;
+  std::vector<std::vector<Feedback>> feedback_;  ///< [rep][policy]
 };
 
 struct PhasedOutput {
@@ -66,7 +88,7 @@ struct PhasedOutput {
 
 /// Runs replications first_rep .. first_rep + n_reps - 1 (every store) over the horizon in
 /// phases.
-PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps,
-                           tbb::task_arena& arena);
+PhasedOutput run_in_phases(const SimSetup& setup, int first_rep, int n_reps, tbb::task_arena& arena,
+                           const PlanCorrections& corrections);
 
 }  // namespace larder

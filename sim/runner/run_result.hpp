@@ -4,6 +4,7 @@
 // merged by concatenating rows and recomputing, bit-identically.
 
 #include <cstdint>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -51,6 +52,9 @@ struct PolicyBreakdown {
   std::vector<std::vector<double>> planned_level;     ///< [replication][group]
   std::vector<std::vector<double>> planned_in_stock;  ///< [replication][group]
   std::size_t first_group = 0;                        ///< index of the first plan_group key
+  /// network_in_stock only, else NaN: the network in-stock target its plans promise (the
+  /// share of open store-item-days in stock at close).
+  double network_target = std::numeric_limits<double>::quiet_NaN();
 };
 
 struct RunResult {

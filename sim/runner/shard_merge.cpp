@@ -22,7 +22,7 @@ std::string joined_keys(const RunResult& r) {
   std::string out;
   for (const auto& b : r.breakdown) {
     for (const BreakdownKey& k : b.keys) out += fmt::format("{}={};", k.dimension, k.key);
-    out += fmt::format("|{}|", b.first_group);
+    out += fmt::format("|{}|{}|", b.first_group, b.network_target);
   }
   return out;
 }
