@@ -7,7 +7,18 @@
 namespace larder {
 
 void Diagnostics::error(Location where, std::string message, std::string hint) {
+  if (items_.size() >= kMaxKept) {
+    ++dropped_;
+    dropped_file_ = std::move(where.file);
+    return;
+  }
   items_.push_back({std::move(where), std::move(message), std::move(hint)});
+}
+
+void Diagnostics::count_dropped(const Diagnostics& other) {
+  if (other.dropped_ == 0) return;
+  dropped_ += other.dropped_;
+  dropped_file_ = other.dropped_file_;
 }
 
 namespace {
@@ -47,6 +58,11 @@ std::string Diagnostics::format() const {
   std::string out;
   for (const auto& d : items_) {
     out += format_diagnostic(d);
+    out += '\n';
+  }
+  if (dropped_ > 0) {
+    out += format_diagnostic(
+        {{dropped_file_, 0, 0}, fmt::format("... and {} more problems", dropped_), {}});
     out += '\n';
   }
   return out;

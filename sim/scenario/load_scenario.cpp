@@ -1316,6 +1316,7 @@ std::optional<Scenario> parse_scenario(const std::string& yaml_text, const std::
                         items[i].message == items[i - 1].message;
     if (!repeat) diag.error(items[i].where, items[i].message, items[i].hint);
   }
+  diag.count_dropped(found);
   if (!diag.ok()) return std::nullopt;
   return scenario;
 }
