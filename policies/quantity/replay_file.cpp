@@ -92,6 +92,19 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
   col.fill(-1);
   bool ok = true;
   const std::vector<CsvField> header = split_fields(text_line);
+  // A first line naming none of the columns is not a header with typos but another file (a
+  // wrong path, or a file that is not larder's): nothing of it is repeated in the message,
+  // which may be shown to people who cannot read the file.
+  if (std::none_of(header.begin(), header.end(), [&](const CsvField& f) {
+        return std::find(std::begin(kNames), std::end(kNames), f.text) != std::end(kNames);
+      })) {
+    diag.error(at(1, 1),
+               "not an order file: the first line names none of the columns store, item, "
+               "quantity, day, date",
+               "is the path right? The order file's first line is a header such as "
+               "store,item,day,quantity");
+    return std::nullopt;
+  }
   for (size_t c = 0; c < header.size(); ++c) {
     const auto known = std::find(std::begin(kNames), std::end(kNames), header[c].text);
     if (known == std::end(kNames)) {
@@ -152,8 +165,14 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
     if (text_line.find_first_not_of(" \t") == std::string::npos) continue;  // blank line
     const std::vector<CsvField> f = split_fields(text_line);
     if (f.size() != header.size()) {
-      diag.error(at(line, 1), fmt::format("expected {} fields ({}), got {}", header.size(),
-                                          header_text, f.size()));
+      if (const auto quote = unclosed_quote(text_line)) {
+        diag.error(at(line, *quote),
+                   "the quote opening this field is never closed (a quoted field ends with \" "
+                   "on the same line)");
+      } else {
+        diag.error(at(line, 1), fmt::format("expected {} fields ({}), got {}", header.size(),
+                                            header_text, f.size()));
+      }
       ok = false;
       continue;
     }

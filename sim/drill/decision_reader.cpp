@@ -46,6 +46,18 @@ DrillDecisions parse_decisions(const DecisionFrame& frame, const std::string& te
   constexpr std::array<const char*, 4> kNames = {"day", "store", "item", "quantity"};
   std::array<int, 4> col{-1, -1, -1, -1};
   const std::vector<CsvField> header = split_fields(first);
+  // A first line naming none of the columns is another file (a wrong path, or not larder's):
+  // nothing of it is repeated in the message.
+  if (std::none_of(header.begin(), header.end(), [&](const CsvField& f) {
+        return std::find(kNames.begin(), kNames.end(), f.text) != kNames.end();
+      })) {
+    diag.error(at(1, 1),
+               "not a decision file: the first line names none of the columns day, store, item, "
+               "quantity",
+               "is the path right? larder drill writes decisions.csv with the header "
+               "day,store,item,quantity");
+    throw InputError(diag);
+  }
   for (size_t c = 0; c < header.size(); ++c) {
     const auto it = std::find(kNames.begin(), kNames.end(), header[c].text);
     if (it == kNames.end()) {

@@ -108,6 +108,16 @@ std::string closest_name(std::string_view name) {
 
 /// Reads the header; nullopt when it has problems (reported).
 std::optional<Header> read_header(const std::vector<CsvField>& f, Problems& problems) {
+  // A first line naming none of the columns is another file (a wrong path, or not a history):
+  // nothing of it is repeated in the message, which may be shown to people who cannot read it.
+  if (std::none_of(f.begin(), f.end(), [](const CsvField& field) {
+        return std::find(kNames.begin(), kNames.end(), field.text) != kNames.end() ||
+               field.text.starts_with("sales_");
+      })) {
+    problems.add(1, 1, "not a sales history: the first line names none of its columns",
+                 kColumnsHint);
+    return std::nullopt;
+  }
   Header h;
   h.col.fill(-1);
   h.fields = f.size();
