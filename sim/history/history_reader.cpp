@@ -66,9 +66,17 @@ class Problems {
     if (count_++ < max_) diag_.error({file_, line, column}, std::move(message), std::move(hint));
   }
   bool any() const { return count_ > 0; }
+  long long count() const { return count_; }
+  /// The reader gave up after `line` (too many problems: not a history, or an endless pipe).
+  void stop(int line) { stopped_after_ = line; }
   [[noreturn]] void raise() {
     if (count_ > max_) {
-      diag_.error({file_, 0, 0}, fmt::format("... and {} more problems", count_ - max_));
+      diag_.error({file_, 0, 0},
+                  stopped_after_ > 0
+                      ? fmt::format("... and {} more problems; larder read no further than line "
+                                    "{}",
+                                    count_ - max_, stopped_after_)
+                      : fmt::format("... and {} more problems", count_ - max_));
     }
     throw InputError(std::move(diag_));
   }
@@ -77,6 +85,7 @@ class Problems {
   std::string file_;
   int max_;
   long long count_ = 0;
+  int stopped_after_ = 0;
   Diagnostics diag_;
 };
 
@@ -404,6 +413,10 @@ HistoryColumns read_history(std::istream& in, const std::string& file,
   if (!header) problems.raise();
   RowReader rows(*header, problems, sink);
   while (lines.next(line, too_long)) {
+    if (problems.count() >= options.stop_after) {
+      problems.stop(lines.line_number() - 1);
+      break;
+    }
     if (too_long) {
       problems.add(
           lines.line_number(), 1,
