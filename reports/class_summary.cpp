@@ -68,7 +68,16 @@ ClassSummary parse_class(const std::vector<ScorecardSource>& cards, Diagnostics&
   for (const ScorecardSource& source : cards) {
     const std::string& file = source.file;
     try {
-      const json card = json::parse(source.text);
+      json card;
+      try {
+        card = json::parse(source.text);
+      } catch (const json::parse_error& e) {
+        // Not nlohmann's text: it quotes what it read last, and the file may be anyone's.
+        diag.error({file, 1, 1},
+                   fmt::format("not a scorecard: not JSON, or cut short (at byte {})", e.byte),
+                   "give folders written by larder drill, or their scorecard.json files");
+        continue;
+      }
       if (!card.is_object() || card.value("format", "") != "larder-drill-scorecard") {
         diag.error({file, 1, 1}, "not a drill scorecard (scorecard.json of larder drill)");
         continue;

@@ -61,8 +61,10 @@ std::string Diagnostics::format() const {
     out += '\n';
   }
   if (dropped_ > 0) {
-    out += format_diagnostic(
-        {{dropped_file_, 0, 0}, fmt::format("... and {} more problems", dropped_), {}});
+    Diagnostic more;
+    more.where.file = dropped_file_;
+    more.message = fmt::format("... and {} more problems", dropped_);
+    out += format_diagnostic(more);
     out += '\n';
   }
   return out;
