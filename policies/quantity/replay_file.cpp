@@ -56,15 +56,16 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
   const auto next_line = [&] {
     if (!reader.next(text_line, too_long)) {
       if (reader.over_size()) {
-        diag.error(at(reader.line_number() + 1, 1),
-                   fmt::format("the order file is larger than the limit of {} MiB (larder read no "
-                               "further)",
-                               kMaxReplayFileBytes >> 20));
+        diag.final_error(
+            at(reader.line_number() + 1, 1),
+            fmt::format("the order file is larger than the limit of {} MiB (larder read no "
+                        "further)",
+                        kMaxReplayFileBytes >> 20));
       }
       return false;
     }
     if (too_long) {
-      diag.error(
+      diag.final_error(
           at(reader.line_number(), 1),
           fmt::format("line is longer than {} bytes; is this a CSV file?", LineReader::kMaxLine),
           "columns: store, item, quantity and either day or date");

@@ -10,6 +10,7 @@
 #include <string_view>
 #include <unordered_map>
 
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/csv_fields.hpp"
 #include "sim/scenario/line_reader.hpp"
 #include "sim/scenario/params.hpp"
@@ -423,7 +424,7 @@ HistoryColumns read_history(std::istream& in, const std::string& file,
           lines.stopped_early()
               ? fmt::format("line is longer than {} bytes and goes on past {} without an end; "
                             "larder read no further. Is this a CSV file?",
-                            LineReader::kMaxLine, LineReader::kMaxSkip)
+                            LineReader::kMaxLine, size_in_words(LineReader::kMaxSkip))
               : fmt::format("line is longer than {} bytes; is this a CSV file?",
                             LineReader::kMaxLine));
       continue;

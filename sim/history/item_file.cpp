@@ -126,9 +126,10 @@ std::vector<ItemRecord> read_item_file(std::istream& in, const std::string& path
     }
     if (line.find_first_not_of(" \t") == std::string::npos) continue;
     if (++rows > kMaxItemFileItems) {
-      diag.error(at(l, 1),
-                 fmt::format("more than {} item rows (larder read no further)", kMaxItemFileItems),
-                 "an item file has one row per item of the history");
+      diag.final_error(
+          at(l, 1),
+          fmt::format("more than {} item rows (larder read no further)", kMaxItemFileItems),
+          "an item file has one row per item of the history");
       break;
     }
     split_fields(line, f);
@@ -179,15 +180,17 @@ std::vector<ItemRecord> read_item_file(std::istream& in, const std::string& path
     if (ok) items.push_back(std::move(r));
   }
   if (lines.over_size()) {
-    diag.error(at(lines.line_number() + 1, 1),
-               fmt::format("the item file is larger than the limit of {} (larder read no further)",
-                           size_in_words(kMaxItemFileBytes)),
-               kHint);
+    diag.final_error(
+        at(lines.line_number() + 1, 1),
+        fmt::format("the item file is larger than the limit of {} (larder read no further)",
+                    size_in_words(kMaxItemFileBytes)),
+        kHint);
   } else if (lines.stopped_early()) {
-    diag.error(at(lines.line_number(), 1),
-               fmt::format("the line goes on past {} without an end (larder read no further); is "
-                           "this a CSV file?",
-                           size_in_words(LineReader::kMaxSkip)));
+    diag.final_error(
+        at(lines.line_number(), 1),
+        fmt::format("the line goes on past {} without an end (larder read no further); is "
+                    "this a CSV file?",
+                    size_in_words(LineReader::kMaxSkip)));
   }
   if (diag.ok() && items.empty()) diag.error(at(1, 1), "the item file has no items", kHint);
   if (!diag.ok()) throw InputError(std::move(diag));

@@ -31,15 +31,18 @@ class Diagnostics {
   static constexpr std::size_t kMaxKept = 100;
 
   void error(Location where, std::string message, std::string hint = {});
+  /// The problem that made a reader stop (a size cap, a line without an end): kept even past
+  /// kMaxKept, so that the report always says why the input was not read to its end.
+  void final_error(Location where, std::string message, std::string hint = {});
   bool ok() const { return items_.empty(); }
-  /// The problems kept (at most kMaxKept).
+  /// The problems kept (at most kMaxKept, and a final_error).
   const std::vector<Diagnostic>& items() const { return items_; }
   /// Problems found beyond kMaxKept (counted, not kept).
   std::size_t dropped() const { return dropped_; }
   /// Counts the problems `other` dropped as dropped here too (after copying its items()).
   void count_dropped(const Diagnostics& other);
-  /// All problems kept, one per line (plus hint lines), in the order found; then
-  /// `file: error: ... and N more problems` when some were dropped.
+  /// All problems kept, one per line (plus hint lines), in the order found, with
+  /// `file: error: ... and N more problems` after the first kMaxKept when some were dropped.
   std::string format() const;
 
  private:

@@ -69,7 +69,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     decided = larder::parse_decisions({f.scenario, f.turns}, text, "decisions.csv");
   } catch (const larder::InputError& e) {
     const larder::Diagnostics& diag = e.diagnostics();
-    if (diag.ok() || diag.items().size() > larder::Diagnostics::kMaxKept) __builtin_trap();
+    if (diag.ok() || diag.items().size() > larder::Diagnostics::kMaxKept + 1) __builtin_trap();
     for (const larder::Diagnostic& d : diag.items()) {
       if (d.where.file != "decisions.csv" || d.where.line < 0 || d.where.line > lines ||
           d.message.empty())

@@ -1,7 +1,7 @@
 // Fuzz target: an item file (`larder fit --items`, the format `larder history --items-out`
 // writes; sim/history/item_file.hpp). Contract checked on every input: no crash, hang or
 // sanitizer report; items or InputError, never anything else; problems name the file and a line
-// of the text (or none), at most Diagnostics::kMaxKept of them; accepted items have distinct,
+// of the text (or none), at most Diagnostics::kMaxKept of them and the reason it stopped; accepted items have distinct,
 // non-empty ids, prices and costs that are finite numbers >= 0, shelf lives from 1 to 3650 and
 // the same attribute columns in the same order. Crashes found become tests in
 // tests/fuzz_regressions.test.cpp.
@@ -27,7 +27,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     items = larder::read_item_file(in, "items.csv");
   } catch (const larder::InputError& e) {
     const larder::Diagnostics& diag = e.diagnostics();
-    if (diag.ok() || diag.items().size() > larder::Diagnostics::kMaxKept) __builtin_trap();
+    if (diag.ok() || diag.items().size() > larder::Diagnostics::kMaxKept + 1) __builtin_trap();
     for (const larder::Diagnostic& d : diag.items()) {
       if (d.where.file != "items.csv" || d.where.line < 0 || d.where.line > lines + 1 ||
           d.message.empty())
