@@ -398,6 +398,14 @@ TEST_CASE("a file that is not the expected input is refused without repeating it
     CHECK(o.err.find(words) != std::string::npos);
     CHECK(o.err.find("S3CRET") == std::string::npos);
   };
+  refused(test::run_larder(kArea, fmt::format("check {}", secret.string())),
+          ":1:1: error: not a larder scenario: it has none of the keys format, name, stores, "
+          "items, policies");
+  const auto one_value = test::scratch_path(kArea, "one-value.txt");
+  test::write_text(one_value, "S3CRET-token-0123\n");
+  refused(test::run_larder(kArea, fmt::format("check {}", one_value.string())),
+          "a scenario must be a mapping of keys to values such as `format: 1` (got a single "
+          "value)");
   refused(
       check_text("secret-replay.yaml",
                  edited("quantity: { rule: fixed, quantity: 35 }",
