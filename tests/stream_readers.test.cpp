@@ -154,9 +154,10 @@ TEST_CASE("readers fed by a pipe or a FIFO stop at their caps, with bounded repo
                                 fmt::format("fit {{in}} --out {}", fitted), fifo);
       require_stopped(bad_rows, "more problems; larder read no further than line 100001");
       CHECK(bad_rows.err.find(":2:1: error: expected 7 fields") != std::string::npos);
-      require_stopped(feed("history-line", fmt::format("echo {}; yes | tr -d '\\n'", header),
-                           fmt::format("fit {{in}} --out {}", fitted), fifo),
-                      ":2:1: error: line is longer than 1048576 bytes and goes on past 64 MiB without an end");
+      require_stopped(
+          feed("history-line", fmt::format("echo {}; yes | tr -d '\\n'", header),
+               fmt::format("fit {{in}} --out {}", fitted), fifo),
+          ":2:1: error: line is longer than 1048576 bytes and goes on past 64 MiB without an end");
       CHECK(!test::fs::exists(fitted));
 
       // Item file: endless copies of one item up to its cap of 256 MiB.

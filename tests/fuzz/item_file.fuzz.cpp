@@ -1,10 +1,10 @@
 // Fuzz target: an item file (`larder fit --items`, the format `larder history --items-out`
 // writes; sim/history/item_file.hpp). Contract checked on every input: no crash, hang or
 // sanitizer report; items or InputError, never anything else; problems name the file and a line
-// of the text (or none), at most Diagnostics::kMaxKept of them and the reason it stopped; accepted items have distinct,
-// non-empty ids, prices and costs that are finite numbers >= 0, shelf lives from 1 to 3650 and
-// the same attribute columns in the same order. Crashes found become tests in
-// tests/fuzz_regressions.test.cpp.
+// of the text (or none), at most Diagnostics::kMaxKept of them and the reason the reader
+// stopped; accepted items have distinct, non-empty ids, prices and costs that are finite
+// numbers >= 0, shelf lives from 1 to 3650 and the same attribute columns in the same order.
+// Crashes found become tests in tests/fuzz_regressions.test.cpp.
 
 #include "sim/history/item_file.hpp"
 
