@@ -14,6 +14,10 @@
 #include <sys/stat.h>
 
 #include <cstdlib>
+#include <sstream>
+#include <string>
+#include <utility>
+#include <vector>
 
 #include "tests/cli_runner.test.hpp"
 
