@@ -1,7 +1,7 @@
 # Conveniences over the README's two set-up commands (.ci/demo and .ci/test).
 JOBS ?= $(shell nproc)
 
-.PHONY: demo test bench debug-test tsan-test fuzz format
+.PHONY: demo test bench debug-test tsan-test fuzz fuzz-long format
 
 demo:
 	bash .ci/demo
@@ -29,6 +29,13 @@ FUZZ_SECONDS ?= 60
 fuzz:
 	bash .ci/install-deps
 	bash .ci/fuzz $(FUZZ_SECONDS)
+
+# Every fuzz target for FUZZ_RUNS (default 10 million) inputs each, however long it takes
+# (hours on 2 cores); see DEVELOPERS.md, "Fuzzing".
+FUZZ_RUNS ?= 10000000
+fuzz-long:
+	bash .ci/install-deps
+	FUZZ_RUNS=$(FUZZ_RUNS) bash .ci/fuzz
 
 format:
 	find sim policies reports cli tests -name '*.hpp' -o -name '*.cpp' | xargs clang-format -i

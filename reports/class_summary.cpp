@@ -60,11 +60,82 @@ std::string cell(double v, int decimals) {
 
 }  // namespace
 
-ClassSummary read_class(const std::vector<std::string>& inputs) {
+ClassSummary parse_class(const std::vector<ScorecardSource>& cards, Diagnostics& diag) {
   ClassSummary s;
-  Diagnostics diag;
   std::vector<ClassRow> references;
   std::uint64_t first_seed = 0;
+  bool have_first = false;
+  for (const ScorecardSource& source : cards) {
+    const std::string& file = source.file;
+    try {
+      json card;
+      try {
+        card = json::parse(source.text);
+      } catch (const json::parse_error& e) {
+        // Not nlohmann's text: it quotes what it read last, and the file may be anyone's.
+        diag.error({file, 1, 1},
+                   fmt::format("not a scorecard: not JSON, or cut short (at byte {})", e.byte),
+                   "give folders written by larder drill, or their scorecard.json files");
+        continue;
+      }
+      if (!card.is_object() || card.value("format", "") != "larder-drill-scorecard") {
+        diag.error({file, 1, 1}, "not a drill scorecard (scorecard.json of larder drill)");
+        continue;
+      }
+      const std::string scenario = card.at("scenario").get<std::string>();
+      const std::string store = card.at("store").get<std::string>();
+      const int days = json_int(card.at("days"), "days", 0, 1'000'000'000);
+      const json& policies = card.at("policies");
+      const std::string house = policies.at(1).at("name").get<std::string>();
+      const std::uint64_t seed = json_uint64(card.at("seed"), "seed");
+      const bool first = !have_first;
+      if (first) {
+        s.scenario = scenario;
+        s.store = store;
+        s.days = days;
+        s.currency = card.value("currency", "");
+        s.house = house;
+        first_seed = seed;
+      } else if (scenario != s.scenario || store != s.store || days != s.days || house != s.house) {
+        diag.error({file, 1, 1},
+                   fmt::format("another exercise: scenario {}, store {}, {} days, house rule {} "
+                               "(the first file: {}, {}, {} days, {})",
+                               scenario, store, days, house, s.scenario, s.store, s.days, s.house),
+                   "a class view compares the scorecards of one exercise");
+        continue;
+      }
+      const double house_profit = num(policies.at(1).at("metrics").at("profit"));
+      ClassRow trainee = row_of(policies.at(0), card, file, house_profit);
+      std::vector<ClassRow> refs;
+      if (first) {
+        for (size_t p = 1; p < policies.size(); ++p) {
+          refs.push_back(row_of(policies.at(p), card, file, house_profit));
+        }
+      }
+      // Nothing of a card is kept until all of it was read.
+      have_first = true;
+      if (seed != first_seed) s.same_seed = false;
+      s.rows.push_back(std::move(trainee));
+      references.insert(references.end(), refs.begin(), refs.end());
+    } catch (const std::exception& e) {
+      // nlohmann's messages start with "[json.exception.type_error.306] "; say it plainly.
+      std::string why = e.what();
+      if (why.starts_with("[json.exception.")) {
+        const size_t close = why.find("] ");
+        if (close != std::string::npos) why = why.substr(close + 2);
+      }
+      diag.error({file, 1, 1},
+                 fmt::format("not a scorecard larder can read (damaged or edited?): {}", why),
+                 "give folders written by larder drill, or their scorecard.json files");
+    }
+  }
+  s.rows.insert(s.rows.end(), references.begin(), references.end());
+  return s;
+}
+
+ClassSummary read_class(const std::vector<std::string>& inputs) {
+  Diagnostics diag;
+  std::vector<ScorecardSource> cards;
   std::vector<std::filesystem::path> seen;  // per input, its scorecard's canonical path
   for (size_t k = 0; k < inputs.size(); ++k) {
     std::filesystem::path file(inputs[k]);
@@ -83,7 +154,7 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
       continue;
     }
     seen.push_back(canonical);
-    const BoundedText in = read_bounded(file.string(), kMaxScorecardBytes);
+    BoundedText in = read_bounded(file.string(), kMaxScorecardBytes);
     if (!in.ok()) {
       diag.error({file.string(), 0, 0},
                  in.too_large ? fmt::format("larger than the limit of {} for a scorecard",
@@ -92,54 +163,10 @@ ClassSummary read_class(const std::vector<std::string>& inputs) {
                  "give folders written by larder drill, or their scorecard.json files");
       continue;
     }
-    try {
-      const json card = json::parse(in.text);
-      if (card.value("format", "") != "larder-drill-scorecard") {
-        diag.error({file.string(), 1, 1}, "not a drill scorecard (scorecard.json of larder drill)");
-        continue;
-      }
-      const std::string scenario = card.at("scenario").get<std::string>();
-      const std::string store = card.at("store").get<std::string>();
-      const int days = json_int(card.at("days"), "days", 0, 1'000'000'000);
-      const json& policies = card.at("policies");
-      const std::string house = policies.at(1).at("name").get<std::string>();
-      if (k == 0) {
-        s.scenario = scenario;
-        s.store = store;
-        s.days = days;
-        s.currency = card.value("currency", "");
-        s.house = house;
-        first_seed = json_uint64(card.at("seed"), "seed");
-      } else if (scenario != s.scenario || store != s.store || days != s.days || house != s.house) {
-        diag.error({file.string(), 1, 1},
-                   fmt::format("another exercise: scenario {}, store {}, {} days, house rule {} "
-                               "(the first file: {}, {}, {} days, {})",
-                               scenario, store, days, house, s.scenario, s.store, s.days, s.house),
-                   "a class view compares the scorecards of one exercise");
-        continue;
-      }
-      if (json_uint64(card.at("seed"), "seed") != first_seed) s.same_seed = false;
-      const double house_profit = num(policies.at(1).at("metrics").at("profit"));
-      s.rows.push_back(row_of(policies.at(0), card, file.string(), house_profit));
-      if (k == 0) {
-        for (size_t p = 1; p < policies.size(); ++p) {
-          references.push_back(row_of(policies.at(p), card, file.string(), house_profit));
-        }
-      }
-    } catch (const std::exception& e) {
-      // nlohmann's messages start with "[json.exception.type_error.306] "; say it plainly.
-      std::string why = e.what();
-      if (why.starts_with("[json.exception.")) {
-        const size_t close = why.find("] ");
-        if (close != std::string::npos) why = why.substr(close + 2);
-      }
-      diag.error({file.string(), 1, 1},
-                 fmt::format("not a scorecard larder can read (damaged or edited?): {}", why),
-                 "give folders written by larder drill, or their scorecard.json files");
-    }
+    cards.push_back({file.string(), std::move(in.text)});
   }
+  ClassSummary s = parse_class(cards, diag);
   if (!diag.ok()) throw InputError(diag);
-  s.rows.insert(s.rows.end(), references.begin(), references.end());
   return s;
 }
 

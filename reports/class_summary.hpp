@@ -9,6 +9,8 @@
 
 namespace larder {
 
+class Diagnostics;
+
 struct ClassRow {
   std::string name;
   std::string role;    ///< trainee, house or comparison
@@ -28,8 +30,20 @@ struct ClassSummary {
   std::vector<ClassRow> rows;  ///< trainees in the order given, then the first file's policies
 };
 
-/// Reads `inputs` (folders holding scorecard.json, or the files). Throws InputError naming the
-/// files when one cannot be read, is not a scorecard, or belongs to another exercise.
+/// One scorecard.json's text and the file it is reported as.
+struct ScorecardSource {
+  std::string file;
+  std::string text;
+};
+
+/// The class view of `cards` (the first card read sets the exercise); every card that is not a
+/// scorecard, is damaged or belongs to another exercise is reported to `diag` and left out.
+/// A function of the texts only, so the fuzz target of tests/fuzz/ calls it without files.
+ClassSummary parse_class(const std::vector<ScorecardSource>& cards, Diagnostics& diag);
+
+/// Reads `inputs` (folders holding scorecard.json, or the files; each at most once). Throws
+/// InputError naming the files when one cannot be read, is given twice, is not a scorecard, or
+/// belongs to another exercise.
 ClassSummary read_class(const std::vector<std::string>& inputs);
 
 std::string class_text(const ClassSummary& s);

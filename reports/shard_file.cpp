@@ -96,7 +96,9 @@ ShardResult parse_shard_file(std::string_view text) {
   } catch (const json::exception&) {
     throw std::runtime_error("not a larder shard file (not JSON, or cut short)");
   }
-  if (!j.is_object() || j.value("format", "") != kFormat) {
+  // Not j.value("format", ""): it throws a json type_error when "format" is not a string.
+  const auto format = j.is_object() ? j.find("format") : j.end();
+  if (format == j.end() || !format->is_string() || format->get<std::string>() != kFormat) {
     throw std::runtime_error("not a larder shard file");
   }
   try {

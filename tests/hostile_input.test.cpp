@@ -357,5 +357,81 @@ TEST_CASE("likely mistakes are warned about, and the scenario still runs", "[hos
   CHECK(o.err.find("stores[0]") == std::string::npos);  // the open store: no warning
 }
 
+TEST_CASE("unit_cost 0 is named as why critical_fractile cannot order", "[hostile]") {
+  // With c = 0 (and nothing recovered, s = 0) the critical ratio (p - c + g) / (p - s + g) is 1
+  // (Nahmias, the newsvendor chapter): no leftover costs anything. The cause is the zero cost,
+  // not a recovery of "the full cost".
+  const Outcome o =
+      check_text("free.yaml", edited("unit_cost: 0.4", "unit_cost: 0") +
+                                  "  - { name: nv, forecast: { method: oracle }, quantity: { rule: "
+                                  "critical_fractile } }\n");
+  require_input_error(o, "free.yaml",
+                      "item 'roll' has unit_cost 0, so a unit left over costs nothing and the "
+                      "rule would order without limit");
+  CHECK(o.err.find("recover the full cost") == std::string::npos);
+}
+
+TEST_CASE("an unclosed quote in an order file is named at the quote", "[hostile]") {
+  const auto orders = test::scratch_path(kArea, "quote-orders.csv");
+  test::write_text(orders, "day,store,item,quantity\n3,corner,\"roll,5\n");
+  const Outcome o = check_text(
+      "quote.yaml", edited("quantity: { rule: fixed, quantity: 35 }",
+                           fmt::format("quantity: {{ rule: replay, file: {} }}", orders.string())));
+  INFO(o.err);
+  CHECK(o.code == 2);
+  // Column 10 of line 2 (counted by hand: `3,corner,` is 9 characters).
+  CHECK(o.err.find(orders.string() +
+                   ":2:10: error: the quote opening this field is never closed") == 0);
+  CHECK(o.err.find("expected 4 fields") == std::string::npos);
+}
+
+TEST_CASE("a file that is not the expected input is refused without repeating its text",
+          "[hostile]") {
+  // A file read by mistake (or on purpose: `replay file: /etc/shadow` run by someone allowed to
+  // read it) must not have its content printed: messages may be shown to others.
+  const auto secret = test::scratch_path(kArea, "secret.txt");
+  test::write_text(secret,
+                   "root:$6$S3CRETHASHxq:19000:0:99999:7:::\ndaemon:S3CRET2:19000:0:99999:7:::\n");
+  const auto refused = [&](const Outcome& o, const std::string& words) {
+    INFO(o.err);
+    CHECK(o.code == 2);
+    CHECK(o.err.find(words) != std::string::npos);
+    CHECK(o.err.find("S3CRET") == std::string::npos);
+  };
+  refused(test::run_larder(kArea, fmt::format("check {}", secret.string())),
+          ":1:1: error: not a larder scenario: it has none of the keys format, name, stores, "
+          "items, policies");
+  const auto one_value = test::scratch_path(kArea, "one-value.txt");
+  test::write_text(one_value, "S3CRET-token-0123\n");
+  refused(test::run_larder(kArea, fmt::format("check {}", one_value.string())),
+          "a scenario must be a mapping of keys to values such as `format: 1` (got a single "
+          "value)");
+  refused(
+      check_text("secret-replay.yaml",
+                 edited("quantity: { rule: fixed, quantity: 35 }",
+                        fmt::format("quantity: {{ rule: replay, file: {} }}", secret.string()))),
+      ":1:1: error: not an order file: the first line names none of the columns");
+  refused(test::run_larder(
+              kArea, fmt::format("drill {}/scenarios/drill-bakery.yaml --decisions {} --out {}",
+                                 LARDER_SOURCE_DIR, secret.string(),
+                                 test::scratch_path(kArea, "secret-drill").string())),
+          ":1:1: error: not a decision file: the first line names none of the columns");
+  const auto fitted = test::scratch_path(kArea, "secret-fit.yaml");
+  refused(test::run_larder(kArea, fmt::format("fit {} --out {}", secret.string(), fitted.string())),
+          ":1:1: error: not a sales history: the first line names none of its columns");
+  const auto history = test::scratch_path(kArea, "secret-h.csv");
+  test::write_text(history, "date,store,item,delivered,sold,leftover,sold_out\n");
+  refused(test::run_larder(kArea, fmt::format("fit {} --items {} --out {}", history.string(),
+                                              secret.string(), fitted.string())),
+          ":1:1: error: the header has no column 'item'");
+  refused(test::run_larder(kArea, fmt::format("drill --summary {} --out {}", secret.string(),
+                                              test::scratch_path(kArea, "secret-class").string())),
+          "error: not a scorecard: not JSON, or cut short (at byte 1)");
+  refused(test::run_larder(kArea, fmt::format("merge {} --out {}", secret.string(),
+                                              test::scratch_path(kArea, "secret-merge").string())),
+          "not a larder shard file");
+  CHECK(!test::fs::exists(fitted));
+}
+
 }  // namespace
 }  // namespace larder

@@ -57,11 +57,24 @@ std::vector<double> read_critical_ratios(PartContext& ctx, std::span<const Deman
       }
     }
     if (cr >= 1.0) {
-      ctx.params.error("",
-                       fmt::format("{}: item '{}' has a critical ratio of 1 (its leftovers "
-                                   "recover the full cost)",
-                                   ctx.params.path(), item.id),
-                       "salvage_value and next_day.price must be below unit_cost");
+      // Nothing is lost on a unit left over: the rule would order without limit. Say why.
+      if (item.unit_cost <= 0.0) {
+        ctx.params.error("",
+                         fmt::format("{}: item '{}' has unit_cost 0, so a unit left over costs "
+                                     "nothing and the rule would order without limit (a "
+                                     "critical ratio of 1)",
+                                     ctx.params.path(), item.id),
+                         "give the item what a unit costs, or order it with another rule "
+                         "(fixed, in_stock_target)");
+      } else {
+        ctx.params.error(
+            "",
+            fmt::format("{}: item '{}' has a critical ratio of 1: a unit left over "
+                        "brings back {:g} (salvage or a later sale), no less than "
+                        "its unit_cost {:g}",
+                        ctx.params.path(), item.id, leftover_recovery(sc, item, g), item.unit_cost),
+            "salvage_value and next_day.price must be below unit_cost");
+      }
     }
     ratio.push_back(cr);
   }

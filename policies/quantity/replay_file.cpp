@@ -46,31 +46,41 @@ std::string did_you_mean(const std::string& id, const std::unordered_map<std::st
 std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::string& name,
                                                 const Scenario& sc, Diagnostics& diag) {
   // Bounded reading (issue 23): lines capped as the history's, the whole file at
-  // kMaxReplayFileBytes, so a 1 GB line or /dev/zero is never held.
-  std::vector<std::string> lines;
+  // kMaxReplayFileBytes, so a 1 GB line or /dev/zero is never held; rows are checked as they
+  // are read, never all kept (a file of empty lines costs nothing).
   const auto at = [&](int line, int column) { return Location{name, line, column}; };
-  {
-    LineReader reader(in, kMaxReplayFileBytes);
-    bool too_long = false;
-    for (std::string line; reader.next(line, too_long);) {
-      if (too_long) {
-        diag.error(
-            at(reader.line_number(), 1),
-            fmt::format("line is longer than {} bytes; is this a CSV file?", LineReader::kMaxLine),
-            "columns: store, item, quantity and either day or date");
-        return std::nullopt;
+  LineReader reader(in, kMaxReplayFileBytes);
+  bool too_long = false;
+  std::string text_line;
+  // The next line; false at the end, at an over-long line or at the size cap (reported).
+  const auto next_line = [&] {
+    if (!reader.next(text_line, too_long)) {
+      if (reader.over_size()) {
+        diag.final_error(
+            at(reader.line_number() + 1, 1),
+            fmt::format("the order file is larger than the limit of {} MiB (larder read no "
+                        "further)",
+                        kMaxReplayFileBytes >> 20));
       }
-      lines.push_back(std::move(line));
+      return false;
     }
-    if (reader.over_size()) {
-      diag.error(at(reader.line_number() + 1, 1),
-                 fmt::format("the order file is larger than the limit of {} MiB (larder read no "
-                             "further)",
-                             kMaxReplayFileBytes >> 20));
-      return std::nullopt;
+    if (too_long) {
+      diag.final_error(
+          at(reader.line_number(), 1),
+          fmt::format("line is longer than {} bytes; is this a CSV file?", LineReader::kMaxLine),
+          "columns: store, item, quantity and either day or date");
+      return false;
     }
+    return true;
+  };
+  if (!next_line()) {
+    if (diag.ok()) {
+      diag.error(at(1, 1), "expected a header such as store,item,day,quantity",
+                 "columns: store, item, quantity and either day or date");
+    }
+    return std::nullopt;
   }
-  if (lines.empty() || lines[0].find_first_not_of(" \t") == std::string::npos) {
+  if (text_line.find_first_not_of(" \t") == std::string::npos) {
     diag.error(at(1, 1), "expected a header such as store,item,day,quantity",
                "columns: store, item, quantity and either day or date");
     return std::nullopt;
@@ -82,7 +92,20 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
   std::array<int, column_kinds> col;
   col.fill(-1);
   bool ok = true;
-  const std::vector<CsvField> header = split_fields(lines[0]);
+  const std::vector<CsvField> header = split_fields(text_line);
+  // A first line naming none of the columns is not a header with typos but another file (a
+  // wrong path, or a file that is not larder's): nothing of it is repeated in the message,
+  // which may be shown to people who cannot read the file.
+  if (std::none_of(header.begin(), header.end(), [&](const CsvField& f) {
+        return std::find(std::begin(kNames), std::end(kNames), f.text) != std::end(kNames);
+      })) {
+    diag.error(at(1, 1),
+               "not an order file: the first line names none of the columns store, item, "
+               "quantity, day, date",
+               "is the path right? The order file's first line is a header such as "
+               "store,item,day,quantity");
+    return std::nullopt;
+  }
   for (size_t c = 0; c < header.size(); ++c) {
     const auto known = std::find(std::begin(kNames), std::end(kNames), header[c].text);
     if (known == std::end(kNames)) {
@@ -138,13 +161,19 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
   for (const CsvField& f : header) header_text += (header_text.empty() ? "" : ",") + f.text;
   std::vector<std::vector<ReplayOrder>> orders(sc.stores.size());
   std::map<std::tuple<int, int, int>, int> first_line;  // (store, item, day) -> line
-  for (size_t l = 1; l < lines.size(); ++l) {
-    const int line = static_cast<int>(l) + 1;
-    if (lines[l].find_first_not_of(" \t") == std::string::npos) continue;  // blank line
-    const std::vector<CsvField> f = split_fields(lines[l]);
+  while (next_line()) {
+    const int line = reader.line_number();
+    if (text_line.find_first_not_of(" \t") == std::string::npos) continue;  // blank line
+    const std::vector<CsvField> f = split_fields(text_line);
     if (f.size() != header.size()) {
-      diag.error(at(line, 1), fmt::format("expected {} fields ({}), got {}", header.size(),
-                                          header_text, f.size()));
+      if (const auto quote = unclosed_quote(text_line)) {
+        diag.error(at(line, *quote),
+                   "the quote opening this field is never closed (a quoted field ends with \" "
+                   "on the same line)");
+      } else {
+        diag.error(at(line, 1), fmt::format("expected {} fields ({}), got {}", header.size(),
+                                            header_text, f.size()));
+      }
       ok = false;
       continue;
     }
@@ -247,7 +276,7 @@ std::optional<ReplayOrders> parse_replay_orders(std::istream& in, const std::str
     }
     orders[static_cast<size_t>(s->second)].push_back({*day, it->second, static_cast<int>(*q)});
   }
-  if (!ok) return std::nullopt;
+  if (!ok || !diag.ok()) return std::nullopt;
   for (auto& v : orders) std::sort(v.begin(), v.end());
   return orders;
 }

@@ -100,11 +100,7 @@ DrillGame::DrillGame(const Scenario& original) {
   table_ = std::make_unique<OrderTable>(lead, days, items);
   policies_.back().quantity = order_table_method(*table_);
   policies_.back().adjustments.clear();
-  for (int a = warmup; a < days; ++a) {
-    const bool delivery = s.is_open(spec.store, a) &&
-                          s.logistics.delivery_weekdays[static_cast<size_t>(s.weekday_of(a))];
-    if (delivery) turns_.push_back({a - lead, a, a - warmup + 1});
-  }
+  turns_ = drill_turns(s);
 
   // The house rule's deliveries: its orders, after its adjustments, packs and capacity.
   house_delivered_.assign(static_cast<size_t>(days * items), 0);

@@ -14,21 +14,12 @@
 #include <vector>
 
 #include "policies/policy.hpp"
+#include "sim/drill/drill_turns.hpp"
 #include "sim/drill/order_table.hpp"
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/metric.hpp"
 
 namespace larder {
-
-/// One order the trainee places: after the close of `order_day`, delivered on `arrival_day`.
-struct DrillTurn {
-  int order_day = 0;
-  int arrival_day = 0;
-  int drill_day = 1;  ///< of the arrival: 1 = the first drill day
-};
-
-/// The trainee's orders, [turn][k] for the drill's k-th item (units, before pack rounding).
-using DrillDecisions = std::vector<std::vector<int>>;
 
 /// One day of one item at the trainee's store, as the store recorded it.
 struct SeenDay {

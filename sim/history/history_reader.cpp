@@ -10,6 +10,7 @@
 #include <string_view>
 #include <unordered_map>
 
+#include "sim/scenario/bounded_read.hpp"
 #include "sim/scenario/csv_fields.hpp"
 #include "sim/scenario/line_reader.hpp"
 #include "sim/scenario/params.hpp"
@@ -66,9 +67,17 @@ class Problems {
     if (count_++ < max_) diag_.error({file_, line, column}, std::move(message), std::move(hint));
   }
   bool any() const { return count_ > 0; }
+  long long count() const { return count_; }
+  /// The reader gave up after `line` (too many problems: not a history, or an endless pipe).
+  void stop(int line) { stopped_after_ = line; }
   [[noreturn]] void raise() {
     if (count_ > max_) {
-      diag_.error({file_, 0, 0}, fmt::format("... and {} more problems", count_ - max_));
+      diag_.error({file_, 0, 0},
+                  stopped_after_ > 0
+                      ? fmt::format("... and {} more problems; larder read no further than line "
+                                    "{}",
+                                    count_ - max_, stopped_after_)
+                      : fmt::format("... and {} more problems", count_ - max_));
     }
     throw InputError(std::move(diag_));
   }
@@ -77,6 +86,7 @@ class Problems {
   std::string file_;
   int max_;
   long long count_ = 0;
+  int stopped_after_ = 0;
   Diagnostics diag_;
 };
 
@@ -108,6 +118,16 @@ std::string closest_name(std::string_view name) {
 
 /// Reads the header; nullopt when it has problems (reported).
 std::optional<Header> read_header(const std::vector<CsvField>& f, Problems& problems) {
+  // A first line naming none of the columns is another file (a wrong path, or not a history):
+  // nothing of it is repeated in the message, which may be shown to people who cannot read it.
+  if (std::none_of(f.begin(), f.end(), [](const CsvField& field) {
+        return std::find(kNames.begin(), kNames.end(), field.text) != kNames.end() ||
+               field.text.starts_with("sales_");
+      })) {
+    problems.add(1, 1, "not a sales history: the first line names none of its columns",
+                 kColumnsHint);
+    return std::nullopt;
+  }
   Header h;
   h.col.fill(-1);
   h.fields = f.size();
@@ -394,13 +414,17 @@ HistoryColumns read_history(std::istream& in, const std::string& file,
   if (!header) problems.raise();
   RowReader rows(*header, problems, sink);
   while (lines.next(line, too_long)) {
+    if (problems.count() >= options.stop_after) {
+      problems.stop(lines.line_number() - 1);
+      break;
+    }
     if (too_long) {
       problems.add(
           lines.line_number(), 1,
           lines.stopped_early()
               ? fmt::format("line is longer than {} bytes and goes on past {} without an end; "
                             "larder read no further. Is this a CSV file?",
-                            LineReader::kMaxLine, LineReader::kMaxSkip)
+                            LineReader::kMaxLine, size_in_words(LineReader::kMaxSkip))
               : fmt::format("line is longer than {} bytes; is this a CSV file?",
                             LineReader::kMaxLine));
       continue;

@@ -43,18 +43,23 @@ std::optional<double> decimal(std::string_view text) {
 }  // namespace
 
 std::vector<ItemRecord> read_item_file(const std::string& path) {
-  Diagnostics diag;
-  const auto at = [&](int line, int column) { return Location{path, line, column}; };
   std::error_code ec;
   std::ifstream in;
   if (!std::filesystem::is_directory(path, ec)) in.open(path, std::ios::binary);
   if (!in) {
+    Diagnostics diag;
     diag.error(
         {path, 0, 0},
         std::filesystem::exists(path, ec) ? "cannot read the item file" : "no such item file",
         "`larder history --items-out ITEMS.csv` writes one");
     throw InputError(std::move(diag));
   }
+  return read_item_file(in, path);
+}
+
+std::vector<ItemRecord> read_item_file(std::istream& in, const std::string& path) {
+  Diagnostics diag;
+  const auto at = [&](int line, int column) { return Location{path, line, column}; };
   LineReader lines(in, kMaxItemFileBytes);
   std::string line;
   bool too_long = false;
@@ -112,6 +117,7 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
 
   std::vector<ItemRecord> items;
   std::unordered_map<std::string, int> first_line;
+  std::size_t rows = 0;
   while (lines.next(line, too_long)) {
     const int l = lines.line_number();
     if (too_long) {
@@ -119,6 +125,13 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
       continue;
     }
     if (line.find_first_not_of(" \t") == std::string::npos) continue;
+    if (++rows > kMaxItemFileItems) {
+      diag.final_error(
+          at(l, 1),
+          fmt::format("more than {} item rows (larder read no further)", kMaxItemFileItems),
+          "an item file has one row per item of the history");
+      break;
+    }
     split_fields(line, f);
     if (f.size() != header.size()) {
       if (const auto quote = unclosed_quote(line)) {
@@ -167,15 +180,17 @@ std::vector<ItemRecord> read_item_file(const std::string& path) {
     if (ok) items.push_back(std::move(r));
   }
   if (lines.over_size()) {
-    diag.error(at(lines.line_number() + 1, 1),
-               fmt::format("the item file is larger than the limit of {} (larder read no further)",
-                           size_in_words(kMaxItemFileBytes)),
-               kHint);
+    diag.final_error(
+        at(lines.line_number() + 1, 1),
+        fmt::format("the item file is larger than the limit of {} (larder read no further)",
+                    size_in_words(kMaxItemFileBytes)),
+        kHint);
   } else if (lines.stopped_early()) {
-    diag.error(at(lines.line_number(), 1),
-               fmt::format("the line goes on past {} without an end (larder read no further); is "
-                           "this a CSV file?",
-                           size_in_words(LineReader::kMaxSkip)));
+    diag.final_error(
+        at(lines.line_number(), 1),
+        fmt::format("the line goes on past {} without an end (larder read no further); is "
+                    "this a CSV file?",
+                    size_in_words(LineReader::kMaxSkip)));
   }
   if (diag.ok() && items.empty()) diag.error(at(1, 1), "the item file has no items", kHint);
   if (!diag.ok()) throw InputError(std::move(diag));

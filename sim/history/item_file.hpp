@@ -4,6 +4,7 @@
 // every other column an attribute of the item (README, "History format").
 
 #include <cstddef>
+#include <istream>
 #include <string>
 #include <utility>
 #include <vector>
@@ -21,13 +22,18 @@ struct ItemRecord {
 
 /// The largest item file read (its rows are kept): a million items with attributes.
 inline constexpr std::size_t kMaxItemFileBytes = std::size_t{256} << 20;
+/// The most item rows an item file may hold (each kept costs about 200 bytes).
+inline constexpr std::size_t kMaxItemFileItems = 1'000'000;
 
 /// Reads and checks an item file (lines capped as the history's, the whole at
-/// kMaxItemFileBytes, so a pipe or device is never read without end); every problem is reported at
-/// once as InputError
+/// kMaxItemFileBytes and kMaxItemFileItems, so a pipe or device is never read without end);
+/// every problem is reported at once as InputError
 /// (`file:line:col: error: ...`): missing, unknown-empty or duplicate columns, duplicate or empty
 /// item ids, prices and costs that are not numbers >= 0, shelf lives that are not whole numbers
 /// >= 1.
 std::vector<ItemRecord> read_item_file(const std::string& path);
+
+/// The same, from a stream called `path` in messages (the fuzz target of tests/fuzz/ and tests).
+std::vector<ItemRecord> read_item_file(std::istream& in, const std::string& path);
 
 }  // namespace larder

@@ -7,7 +7,22 @@
 namespace larder {
 
 void Diagnostics::error(Location where, std::string message, std::string hint) {
+  if (items_.size() >= kMaxKept) {
+    ++dropped_;
+    dropped_file_ = std::move(where.file);
+    return;
+  }
   items_.push_back({std::move(where), std::move(message), std::move(hint)});
+}
+
+void Diagnostics::final_error(Location where, std::string message, std::string hint) {
+  items_.push_back({std::move(where), std::move(message), std::move(hint)});
+}
+
+void Diagnostics::count_dropped(const Diagnostics& other) {
+  if (other.dropped_ == 0) return;
+  dropped_ += other.dropped_;
+  dropped_file_ = other.dropped_file_;
 }
 
 namespace {
@@ -45,10 +60,19 @@ std::string format_diagnostic(const Diagnostic& d) {
 
 std::string Diagnostics::format() const {
   std::string out;
-  for (const auto& d : items_) {
-    out += format_diagnostic(d);
+  const auto count_line = [&] {
+    Diagnostic more;
+    more.where.file = dropped_file_;
+    more.message = fmt::format("... and {} more problems", dropped_);
+    out += format_diagnostic(more);
+    out += '\n';
+  };
+  for (std::size_t k = 0; k < items_.size(); ++k) {
+    if (k == kMaxKept && dropped_ > 0) count_line();
+    out += format_diagnostic(items_[k]);
     out += '\n';
   }
+  if (dropped_ > 0 && items_.size() <= kMaxKept) count_line();
   return out;
 }
 

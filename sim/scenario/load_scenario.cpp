@@ -1279,11 +1279,27 @@ std::optional<Scenario> parse_document(const std::string& text, const std::strin
     return std::nullopt;
   }
   const YAML::Node& root = docs[0];
+  // A file that is plainly not a scenario (a wrong path, or someone else's file read by
+  // mistake or on purpose) is refused without repeating any of it: messages may be shown to
+  // people who cannot read the file. A scenario has format, name, stores, items and policies;
+  // one with none of them is no scenario with typos.
   if (!root.IsMap()) {
     diag.error(location_of(root, file),
                fmt::format("a scenario must be a mapping of keys to values such as `format: 1` "
                            "(got {})",
-                           describe_value(root)));
+                           root.IsScalar() ? std::string("a single value") : describe_value(root)));
+    return std::nullopt;
+  }
+  if (std::none_of(root.begin(), root.end(), [](const auto& kv) {
+        if (!kv.first.IsScalar()) return false;
+        const std::string& key = kv.first.Scalar();
+        return key == "format" || key == "name" || key == "stores" || key == "items" ||
+               key == "policies";
+      })) {
+    diag.error({file, 1, 1},
+               "not a larder scenario: it has none of the keys format, name, stores, items, "
+               "policies",
+               "is the path right? A scenario starts with `format: 1` (see scenarios/)");
     return std::nullopt;
   }
   if (!check_yaml_expansion(root, file, diag)) return std::nullopt;  // an alias bomb
@@ -1316,6 +1332,7 @@ std::optional<Scenario> parse_scenario(const std::string& yaml_text, const std::
                         items[i].message == items[i - 1].message;
     if (!repeat) diag.error(items[i].where, items[i].message, items[i].hint);
   }
+  diag.count_dropped(found);
   if (!diag.ok()) return std::nullopt;
   return scenario;
 }
