@@ -55,9 +55,10 @@ Amounts amounts(const Estimate& e, bool money, bool sign, bool magnitude) {
     const double shown = magnitude ? std::fabs(v) : v;
     std::string s = format_number(shown / scale, decimals);
     if (sign && !magnitude && s.front() != '-' && s.find_first_not_of("0.,") != std::string::npos) {
-      s = "+" + s;
+      s.insert(s.begin(), '+');
     }
-    return s + std::string(scale_suffix(scale));
+    s += scale_suffix(scale);
+    return s;
   };
   // A magnitude's interval reads from the smaller to the larger amount.
   const bool flip = magnitude && e.mean < 0.0;
@@ -145,7 +146,8 @@ std::string decision_change(const Estimate& e, bool money) {
 }
 
 std::string decision_sentence(const DecisionRow& row, std::string_view currency) {
-  const std::string money = currency.empty() ? std::string() : " " + std::string(currency);
+  std::string money;
+  if (!currency.empty()) money = fmt::format(" {}", currency);
   std::vector<std::string> effects;
   if (row.waste_in_tonnes) {
     effects.push_back(clause(

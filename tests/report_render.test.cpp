@@ -149,17 +149,8 @@ wanted = bytes(int(sys.argv[2][i:i + 2], 16) for i in (0, 2, 4))
 print(w, h, len(counts), 1 - white / total, counts.get(wanted, 0))
 )py";
 
-/// The chromium executable on PATH, or "" when there is none.
-std::string find_chromium() {
-  for (const char* name : {"chromium", "chromium-browser"}) {
-    const test::ProcessResult r = test::run_command_line(fmt::format("command -v {}", name));
-    if (r.code == 0 && !r.output.empty()) return r.output.substr(0, r.output.find('\n'));
-  }
-  return {};
-}
-
 TEST_CASE("chromium renders report.html to a screenshot that is not blank", "[html]") {
-  const std::string chromium = find_chromium();
+  const std::string chromium = test::find_chromium();
   if (chromium.empty()) {
     const std::string message =
         "chromium is not installed, so report.html was not rendered: install it with "
