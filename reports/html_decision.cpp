@@ -20,23 +20,24 @@ bool reports(const RunResult& r, Metric m) {
   return std::find(r.metrics.begin(), r.metrics.end(), m) != r.metrics.end();
 }
 
+/// A number cell's classes: right-aligned, coloured by its verdict.
 std::string_view tone_class(const AnnualChange& c, Metric m) {
-  if (!c.available) return "none";
+  if (!c.available) return "num none";
   switch (verdict_tone(m, c.difference)) {
     case VerdictTone::better:
-      return "better";
+      return "num better";
     case VerdictTone::worse:
-      return "worse";
+      return "num worse";
     case VerdictTone::neutral:
-      return "neutral";
+      return "num neutral";
     default:
-      return "none";
+      return "num none";
   }
 }
 
 /// "-4.10 (-5.00 to -3.20)": the change and its interval, signed.
 HtmlCell change_cell(const AnnualChange& c, Metric m, bool money) {
-  if (!c.available) return {"n/a", "num"};
+  if (!c.available) return {"n/a", "num none"};
   return {decision_change(c.difference, money), tone_class(c, m)};
 }
 

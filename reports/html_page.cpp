@@ -95,7 +95,9 @@ HtmlTable::HtmlTable(std::string_view caption) : caption_(xml_escape(caption)) {
 
 void HtmlTable::row(const std::vector<HtmlCell>& cells) {
   if (rows_ == 0) {
-    for (const HtmlCell& c : cells) numeric_.push_back(c.css_class == "num");
+    for (const HtmlCell& c : cells) {
+      numeric_.push_back(c.css_class == "num" || c.css_class.starts_with("num "));
+    }
   }
   body_ += "<tr>";
   for (const HtmlCell& c : cells) {

@@ -11,7 +11,8 @@
 namespace larder {
 
 /// A table cell: its text and an optional class ("num" right-aligns numbers; "better",
-/// "worse", "neutral", "none" style verdicts). `row_header` cells are <th scope="row">.
+/// "worse", "neutral", "none" style verdicts; "num better" does both). `row_header` cells are <th
+/// scope="row">.
 struct HtmlCell {
   std::string text;
   std::string_view css_class = {};

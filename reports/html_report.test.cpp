@@ -365,7 +365,7 @@ TEST_CASE("report.html opens with the decision summary", "[html]") {
   REQUIRE(row.size() == 4);  // waste, CO2e, customers lost, profit
   CHECK_THAT(row[0], Catch::StartsWith("-0.047"));
   CHECK_THAT(html, Catch::Contains("<th scope=\"col\" class=\"num\">Waste (t CO2e a year)</th>"));
-  CHECK_THAT(html, Catch::Contains("<td class=\"better\">-0.047"));
+  CHECK_THAT(html, Catch::Contains("<td class=\"num better\">-0.047"));
   // The chart: CO2e per year against fill rate, the baseline ringed and named.
   CHECK_THAT(html, Catch::Contains("aria-label=\"waste, t CO2e against fill rate\""));
   CHECK_THAT(html, Catch::Contains(">fixed_order (baseline)</text>"));
