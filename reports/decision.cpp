@@ -15,6 +15,7 @@ namespace {
 
 constexpr double kDaysPerYear = 365.0;
 constexpr double kKgPerTonne = 1000.0;
+constexpr int kSignificant = 3;
 
 bool reports(const RunResult& r, Metric m) {
   return std::find(r.metrics.begin(), r.metrics.end(), m) != r.metrics.end();
@@ -49,11 +50,19 @@ Amounts amounts(const Estimate& e, bool money, bool sign, bool magnitude) {
   const double hw = half_width(e);
   const double top = std::max({std::fabs(e.mean), std::fabs(e.ci_low), std::fabs(e.ci_high)});
   const double scale = money ? money_scale(top) : 1.0;
-  const int decimals = display_decimals(hw / scale);
+  // What the interval supports (two digits of the half-width), but no more than three
+  // significant digits of the largest amount: a sentence, not a table.
+  int decimals = display_decimals(hw / scale);
+  if (std::isfinite(top) && top > 0.0) {
+    decimals = std::min(decimals,
+                        kSignificant - 1 - static_cast<int>(std::floor(std::log10(top / scale))));
+  }
+  const double step = decimals < 0 ? std::pow(10.0, -decimals) : 1.0;
   const auto one = [&](double v) {
     if (!std::isfinite(v)) return std::string("n/a");
     const double shown = magnitude ? std::fabs(v) : v;
-    std::string s = format_number(shown / scale, decimals);
+    const double rounded = decimals < 0 ? std::round(shown / scale / step) * step : shown / scale;
+    std::string s = format_number(rounded, std::max(decimals, 0));
     if (sign && !magnitude && s.front() != '-' && s.find_first_not_of("0.,") != std::string::npos) {
       s.insert(s.begin(), '+');
     }

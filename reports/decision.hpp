@@ -50,7 +50,8 @@ std::vector<DecisionRow> decision_rows(const RunResult& result);
 std::string decision_sentence(const DecisionRow& row, std::string_view currency);
 
 /// A signed amount for the decision page: thousands separators, "k" or "M" for money of
-/// 10,000 or more, decimals that show `half_width` to about two significant digits.
+/// 10,000 or more, rounded to what the interval supports (two significant digits of
+/// `half_width`) but to no more than three significant digits.
 std::string decision_amount(double value, double half_width, bool money, bool sign);
 
 /// "+12.0 k (+8.0 k to +16.0 k)": a signed change and its interval with one scale and one

@@ -126,8 +126,10 @@ TEST_CASE("decision rows scale the paired differences to a year", "[html]") {
 TEST_CASE("decision amounts", "[html]") {
   CHECK(decision_amount(12345.0, 4000.0, true, true) == "+12.3 k");
   CHECK(decision_amount(-2500000.0, 40000.0, true, true) == "-2,500 k");
-  CHECK(decision_amount(25000000.0, 400000.0, true, false) == "25.00 M");
-  CHECK(decision_amount(1234.0, 40.0, false, false) == "1,234");
+  CHECK(decision_amount(25000000.0, 400000.0, true, false) == "25.0 M");
+  CHECK(decision_amount(1234.0, 40.0, false, false) == "1,230");  // three significant digits
+  CHECK(decision_amount(16.068, 0.03, false, false) == "16.1");
+  CHECK(decision_amount(55724.0, 160.0, false, false) == "55,700");
   CHECK(decision_change({9000.0, 1000.0, 7000.0, 11000.0, 5}, true) ==
         "+9.0 k (+7.0 k to +11.0 k)");
   CHECK(decision_change({-0.5, 0.1, -0.7, -0.3, 5}, false) == "-0.50 (-0.70 to -0.30)");
