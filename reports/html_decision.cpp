@@ -70,20 +70,20 @@ std::string trade_off_chart(const RunResult& r) {
   const double year = annual_factor(r.info);
   Metric y_metric = Metric::waste_units;
   double y_scale = year;
-  std::string y_label = "waste, units a year";
+  std::string y_label = "Waste (units a year)";
   if (reports(r, Metric::co2e_kg)) {
     y_metric = Metric::co2e_kg;
     y_scale = year / 1000.0;
-    y_label = "waste, t CO2e a year";
+    y_label = "Waste (t CO2e a year)";
   } else if (reports(r, Metric::waste_kg)) {
     y_metric = Metric::waste_kg;
     y_scale = year / 1000.0;
-    y_label = "waste, t a year";
+    y_label = "Waste (t a year)";
   }
   SeriesChart chart;
   chart.width = 760;
   chart.connect = false;
-  chart.title = fmt::format("{} against fill rate", y_label.substr(0, y_label.find(" a year")));
+  chart.title = fmt::format("{} against fill rate", y_label);
   chart.x_label = metric_label(Metric::fill_rate, r.info.currency);
   chart.y_label = y_label;
   for (std::size_t p = 0; p < r.policies.size(); ++p) {
@@ -95,11 +95,13 @@ std::string trade_off_chart(const RunResult& r) {
     chart.series.push_back(
         {name, {{100.0 * x.mean, 100.0 * half_width(x), y.mean, half_width(y), name, baseline}}});
   }
-  return html_figure(svg_series_chart(chart),
-                     fmt::format("Each policy's {} against its fill rate (the share of demand "
-                                 "served by the item), with 95% confidence intervals both ways; "
-                                 "the baseline is ringed. Down and to the right is better.",
-                                 y_label));
+  return html_figure(
+      svg_series_chart(chart),
+      fmt::format("Each policy's waste per year ({}) against its fill rate (the "
+                  "share of demand served by the item), with 95% confidence "
+                  "intervals both ways; the baseline is ringed. Down and to the "
+                  "right is better.",
+                  y_label.substr(y_label.find('(') + 1, y_label.size() - y_label.find('(') - 2)));
 }
 
 }  // namespace

@@ -37,7 +37,6 @@ pre { background: #f3f5f8; border: 1px solid #d9dee6; padding: 8px 12px; overflo
 table { border-collapse: collapse; font-variant-numeric: tabular-nums; }
 caption { text-align: left; font-weight: 600; padding: 0 0 6px; }
 th, td { padding: 4px 8px; border-bottom: 1px solid #dde2e8; vertical-align: top; }
-th { overflow-wrap: anywhere; }
 thead th { border-bottom: 2px solid #6b7785; text-align: left; background: #f3f5f8; }
 th.num, td.num { text-align: right; }
 ul.sentences { padding-left: 1.2em; }
@@ -72,6 +71,17 @@ footer { margin-top: 3em; font-size: 0.85em; color: #4f4f4f; }
 
 std::string class_attribute(std::string_view css_class) {
   return css_class.empty() ? std::string() : fmt::format(R"( class="{}")", css_class);
+}
+
+/// A header may wrap after a dot, underscore or slash (a zero-width space there), so a YAML
+/// path or a field name does not widen its column; hyphens are break points already.
+std::string with_breaks(std::string_view text) {
+  std::string out;
+  for (const char c : text) {
+    out += c;
+    if (c == '.' || c == '_' || c == '/') out += "\u200b";
+  }
+  return out;
 }
 
 /// "12,345 ± 1,234" may wrap before the "±" but not after it, so a narrow column shows the
@@ -117,7 +127,7 @@ std::string HtmlTable::str() const {
   for (std::size_t c = 0; c < header_.size(); ++c) {
     const bool numeric = c < numeric_.size() && numeric_[c];
     head += fmt::format(R"(<th scope="col"{}>{}</th>)", class_attribute(numeric ? "num" : ""),
-                        xml_escape(header_[c]));
+                        xml_escape(with_breaks(header_[c])));
   }
   return fmt::format(
       R"(<div class="scroll"><table><caption>{}</caption><thead><tr>{}</tr></thead><tbody>{})"

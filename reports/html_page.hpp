@@ -20,9 +20,10 @@ struct HtmlCell {
 };
 
 /// A table with a caption, one header row and body rows, inside a horizontally scrolling box so
-/// wide tables never widen the page. Header cells wrap anywhere and number cells wrap before a
-/// "±", so a table of eight policies fits a 1280-pixel window without that box scrolling. A
-/// header cell is right-aligned when the cell under it in the first row is a number ("num").
+/// wide tables never widen the page. Header cells may also wrap after a dot, underscore or slash,
+/// and number cells wrap before a "±", so a table of eight policies fits a 1280-pixel window
+/// without that box scrolling. A header cell is right-aligned when the cell under it in the first
+/// row is a number ("num").
 class HtmlTable {
  public:
   explicit HtmlTable(std::string_view caption);

@@ -367,7 +367,7 @@ TEST_CASE("report.html opens with the decision summary", "[html]") {
   CHECK_THAT(html, Catch::Contains("<th scope=\"col\" class=\"num\">Waste (t CO2e a year)</th>"));
   CHECK_THAT(html, Catch::Contains("<td class=\"num better\">-0.047"));
   // The chart: CO2e per year against fill rate, the baseline ringed and named.
-  CHECK_THAT(html, Catch::Contains("aria-label=\"waste, t CO2e against fill rate\""));
+  CHECK_THAT(html, Catch::Contains("aria-label=\"Waste (t CO2e a year) against fill rate\""));
   CHECK_THAT(html, Catch::Contains(">fixed_order (baseline)</text>"));
   CHECK_THAT(html, Catch::Contains(R"(fill="none" stroke="#222222" stroke-width="1.5")"));
   // One policy: no comparison, no decision section.

@@ -317,7 +317,7 @@ std::string svg_series_chart(const SeriesChart& chart) {
   draw_value_axis_x(svg, ax, ax.ticks, x, f, chart.x_label);
   draw_value_axis_y(svg, ay, y, f, chart.y_label);
   std::vector<LabelRequest> requests;
-  std::vector<std::string_view> texts;
+  std::vector<std::string> texts;
   std::vector<LabelBox> markers;
   for (std::size_t i = 0; i < series.size(); ++i) {
     const std::string_view colour = kPalette[i % kPalette.size()];
@@ -336,9 +336,23 @@ std::string svg_series_chart(const SeriesChart& chart) {
       if (p.emphasised) svg.circle(at[k], r + 4.0, "none", {kInk, 1.5});
       draw_marker(svg, i, at[k], r, colour, {"#ffffff", 1.0});
       markers.push_back({at[k].x - r, at[k].y - r, at[k].x + r, at[k].y + r});
-      if (!p.label.empty()) {
-        requests.push_back({at[k].x, at[k].y, text_width(p.label, 11.0), 12.0});
-        texts.push_back(p.label);
+      // Points of a series drawn at one place share one label: "0.7, 0.8".
+      bool drawn_before = false;
+      for (std::size_t j = 0; j < k; ++j) {
+        drawn_before = drawn_before ||
+                       (std::fabs(at[j].x - at[k].x) < 1.0 && std::fabs(at[j].y - at[k].y) < 1.0);
+      }
+      std::string label = p.label;
+      for (std::size_t j = k + 1; j < at.size() && !drawn_before; ++j) {
+        const std::string& other = series[i].points[j].label;
+        if (!other.empty() && std::fabs(at[j].x - at[k].x) < 1.0 &&
+            std::fabs(at[j].y - at[k].y) < 1.0) {
+          label += (label.empty() ? "" : ", ") + other;
+        }
+      }
+      if (!label.empty() && !drawn_before) {
+        requests.push_back({at[k].x, at[k].y, text_width(label, 11.0), 12.0});
+        texts.push_back(std::move(label));
       }
     }
   }

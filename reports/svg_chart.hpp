@@ -125,7 +125,8 @@ struct SeriesChart {
 
 /// Points with error bars in both directions, each series in its own colour, dash and marker
 /// shape, joined in order when `connect`; labels never overlap each other or a point
-/// (label_layout.hpp) and a legend under the plot names every series. Points with a non-finite
+/// (label_layout.hpp; points of one series at one place share one label) and a legend under
+/// the plot names every series. Points with a non-finite
 /// coordinate are left out.
 std::string svg_series_chart(const SeriesChart& chart);
 

@@ -142,7 +142,6 @@ std::string sweep_html(const std::vector<Setting>& settings, const std::vector<S
           "and marker, through its points in the order of {} (each point labelled with that "
           "value where there is room); crosshairs are 95% confidence intervals.",
           last)) +
-          "<div class=\"charts\">\n" +
           sweep_chart(settings, points, Metric::in_stock_at_close, Metric::profit, nullptr,
                       info.currency,
                       "Profit against the in-stock share achieved at close: what each point of "
@@ -155,8 +154,7 @@ std::string sweep_html(const std::vector<Setting>& settings, const std::vector<S
           sweep_chart(settings, points, Metric::waste_share, Metric::profit, &marks.profit_waste,
                       info.currency,
                       "Profit against waste. Ringed: no other row has both less waste and more "
-                      "profit (up and to the left is better).") +
-          "</div>\n");
+                      "profit (up and to the left is better)."));
   body += html_section("points", "Points and policies",
                        rows_table(settings, points, marks, info.currency));
   body += footer(info.version, "sweep.csv");
