@@ -49,10 +49,11 @@ int check_command(const CommonOptions& args);
 
 struct SweepArgs {
   CommonOptions common;
-  std::vector<std::string> set;   ///< PATH=V1,V2,... (several make a grid)
-  std::vector<std::string> vary;  ///< PATH=-10%,+10%,...: one input at a time
-  std::string out;                ///< folder for sweep.csv [larder-out/<scenario name>]
-  bool force = false;             ///< write into a non-empty folder that holds no larder result
+  std::vector<std::string> set;              ///< PATH=V1,V2,... (several make a grid)
+  std::vector<std::string> vary;             ///< PATH=-10%,+10%,...: one input at a time
+  std::string waste_metric = "waste_units";  ///< --vary ranks on profit and on this metric
+  std::string out;                           ///< folder for sweep.csv [larder-out/<scenario name>]
+  bool force = false;  ///< write into a non-empty folder that holds no larder result
 };
 int sweep_command(const SweepArgs& args);
 

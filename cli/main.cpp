@@ -82,7 +82,8 @@ int main(int argc, char** argv) {
       "  larder sweep my.yaml --set policies.flat.quantity.level=0.6,0.7,0.8\n"
       "                                   the trade-off as one setting varies\n"
       "  larder sweep my.yaml --vary price=-10%,+10% --vary unit_cost=-20%,+20%\n"
-      "                                   does the ranking survive uncertain costs?\n"
+      "                                   does the best policy stay the best with uncertain\n"
+      "                                   prices and costs? (add --waste-metric co2e_kg)\n"
       "  larder run my.yaml --precision profit=0.5%\n"
       "                                   as many replications as that precision needs\n"
       "  larder allocate my.yaml --policy per-item-levels\n"
@@ -136,20 +137,29 @@ int main(int argc, char** argv) {
   auto* sweep_cmd = app.add_subcommand(
       "sweep",
       "rerun a scenario with settings varied on one seed: a grid (--set, sweep.csv with "
-      "frontiers) or one input at a time (--vary, sensitivity.csv and a tornado table)");
+      "frontiers) or one input at a time (--vary: the ranks of the policies at each value, "
+      "ranks.csv, sensitivity.csv and a tornado table)");
   add_common(*sweep_cmd, sweep.common, true);
   sweep_cmd->add_option("-s,--set", sweep.set,
                         "PATH=V1,V2,... to vary; several --set make a grid. PATH walks the YAML by "
                         "dots, picking list elements by name or id (or * for all), e.g. "
                         "policies.per-item.quantity.target=0.6,0.7,0.8 or items.*.unit_cost=1,1.2");
   sweep_cmd->add_option("--vary", sweep.vary,
-                        "PATH=-10%,+10% (or values): sensitivity, one input at a time, with a "
-                        "tornado table of each policy's profit difference against the baseline; "
-                        "a PATH without dots means every item's key, e.g. --vary price=-10%,+10%");
+                        "PATH=-10%,+10% (or values): sensitivity, one input at a time. At each "
+                        "value every policy is ranked on profit and on --waste-metric, saying "
+                        "where the best policy changes (ranks.csv), with a tornado table of each "
+                        "policy's profit difference against the baseline (sensitivity.csv); a "
+                        "PATH without dots means every item's key, e.g. --vary price=-10%,+10%");
+  sweep_cmd->add_option("--waste-metric", sweep.waste_metric,
+                        "with --vary: the second metric policies are ranked on, by its field "
+                        "name: waste_units, waste_share, waste_kg, co2e_kg, or any metric with a "
+                        "better direction that the scenario reports [waste_units]");
   sweep_cmd->add_flag("--force", sweep.force,
                       "write into an existing, non-empty --out folder that holds no larder result "
                       "(files of larder's names are replaced)");
-  sweep_cmd->add_option("-o,--out", sweep.out, "folder for sweep.csv [larder-out/<scenario name>]");
+  sweep_cmd->add_option("-o,--out", sweep.out,
+                        "folder for sweep.csv or sensitivity.csv and ranks.csv, and sweep.html "
+                        "[larder-out/<scenario name>]");
 
   larder::MergeArgs merge;
   auto* merge_cmd = app.add_subcommand(

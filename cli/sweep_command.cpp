@@ -14,11 +14,14 @@
 #include "reports/output_claim.hpp"
 #include "reports/output_folder.hpp"
 #include "reports/output_path.hpp"
+#include "reports/policy_ranks.hpp"
 #include "reports/result_set.hpp"
 #include "reports/sensitivity.hpp"
 #include "reports/sweep_csv.hpp"
 #include "reports/sweep_report.hpp"
+#include "sim/runner/monte_carlo.hpp"
 #include "sim/scenario/load_scenario.hpp"
+#include "sim/scenario/params.hpp"
 
 namespace larder {
 
@@ -39,6 +42,39 @@ std::vector<Setting> read_settings(const std::vector<std::string>& raw, const st
   }
   if (!d.ok()) throw InputError(d);
   return out;
+}
+
+/// The metric --waste-metric names: one with a better direction that the scenario reports
+/// (surplus, CO2e and the rest are chosen by their field names, so a new metric needs no
+/// change here).
+Metric rank_metric(const std::string& name, const std::optional<Scenario>& base,
+                   const std::string& label) {
+  std::vector<Metric> candidates;
+  const std::vector<Metric> reported = base ? applicable_metrics(*base) : std::vector<Metric>{};
+  for (std::size_t k = 0; k < kMetricCount; ++k) {
+    const Metric m = static_cast<Metric>(k);
+    if (metric_info(m).better == 0) continue;
+    if (base && std::ranges::find(reported, m) == reported.end()) continue;
+    if (metric_name(m) == name) return m;
+    candidates.push_back(m);
+  }
+  std::string names;
+  std::string closest;
+  int distance = 3;
+  for (const Metric m : candidates) {
+    names += (names.empty() ? "" : ", ") + std::string(metric_name(m));
+    const int d = edit_distance(name, metric_name(m));
+    if (d < distance) {
+      distance = d;
+      closest = metric_name(m);
+    }
+  }
+  Diagnostics d;
+  d.error({label, 0, 0},
+          fmt::format("--waste-metric {}: not a metric this scenario ranks policies on", name),
+          closest.empty() ? fmt::format("one of {}", names)
+                          : fmt::format("did you mean {}? (one of {})", closest, names));
+  throw InputError(d);
 }
 
 }  // namespace
@@ -68,7 +104,14 @@ int sweep_command(const SweepArgs& args) {
       dir = std::filesystem::path("larder-out") / base->name;
     }
   }
-  const std::vector<std::string> names = {"sweep.csv", "sensitivity.csv", "sweep.html"};
+  std::optional<Metric> waste_metric;
+  if (!spec.varies.empty()) {
+    Diagnostics ignored;  // run_sweep reports the scenario's problems
+    waste_metric =
+        rank_metric(args.waste_metric, parse_scenario(spec.text, spec.label, ignored), spec.label);
+  }
+  const std::vector<std::string> names = {"sweep.csv", "sensitivity.csv", "ranks.csv",
+                                          "sweep.html"};
   const auto claim = [&] {
     check_output_folder(dir, names, {{args.common.scenario, "the scenario"}});
     claim_output_folder(dir, args.force);
@@ -87,15 +130,22 @@ int sweep_command(const SweepArgs& args) {
   if (!spec.varies.empty()) {
     const RunResult& base = points.front().result;
     const std::vector<TornadoRow> rows = tornado(spec.varies, points);
+    std::vector<RankTable> ranks = {rank_table(points, Metric::profit)};
+    if (*waste_metric != Metric::profit) ranks.push_back(rank_table(points, *waste_metric));
+    std::string ranks_csv(kRankCsvHeader);
+    for (const RankTable& t : ranks) ranks_csv += rank_csv_rows(t);
     publish_result_set(dir,
                        {{"sensitivity.csv", sensitivity_csv(points)},
-                        {"sweep.html", sensitivity_html(points, rows)}},
+                        {"ranks.csv", ranks_csv},
+                        {"sweep.html", sensitivity_html(points, rows, ranks)}},
                        {"sweep.csv"});
     fmt::print("sensitivity of {} ({} replications per point, seed {})\n", spec.label,
                info.replications, info.seed);
+    for (const RankTable& t : ranks) fmt::print("{}\n", rank_text(t));
     fmt::print("{}", tornado_table(rows, base.policies[static_cast<size_t>(base.baseline)]));
     if (!args.common.quiet) {
-      fmt::print(stderr, "sensitivity written to {} and {}\n", (dir / "sensitivity.csv").string(),
+      fmt::print(stderr, "sensitivity written to {}, {} and {}\n",
+                 (dir / "sensitivity.csv").string(), (dir / "ranks.csv").string(),
                  (dir / "sweep.html").string());
     }
     return 0;
@@ -104,7 +154,7 @@ int sweep_command(const SweepArgs& args) {
   publish_result_set(dir,
                      {{"sweep.csv", sweep_csv(spec.settings, points)},
                       {"sweep.html", sweep_html(spec.settings, points, marks)}},
-                     {"sensitivity.csv"});
+                     {"sensitivity.csv", "ranks.csv"});
   fmt::print("sweep of {} ({} points, {} replications each, seed {})\n", spec.label, points.size(),
              info.replications, info.seed);
   fmt::print(

@@ -37,6 +37,10 @@ bool is_significant(const Estimate& difference) {
 }
 
 std::string verdict(Metric m, const Estimate& difference) {
+  return verdict(m, difference, metric_name(m));
+}
+
+std::string verdict(Metric m, const Estimate& difference, std::string_view name) {
   if (difference.n < 2 || !std::isfinite(difference.mean) || !std::isfinite(difference.ci_low) ||
       !std::isfinite(difference.ci_high)) {
     return "not available";
@@ -45,10 +49,9 @@ std::string verdict(Metric m, const Estimate& difference) {
   const bool higher = difference.mean > 0.0;
   const std::string_view direction = higher ? "higher" : "lower";
   const int better = metric_info(m).better;
-  if (better == 0) return fmt::format("{} {} (significant)", direction, metric_name(m));
+  if (better == 0) return fmt::format("{} {} (significant)", direction, name);
   const bool good = (better > 0) == higher;
-  return fmt::format("{}: {} {} (significant)", good ? "better" : "worse", direction,
-                     metric_name(m));
+  return fmt::format("{}: {} {} (significant)", good ? "better" : "worse", direction, name);
 }
 
 VerdictTone verdict_tone(Metric m, const Estimate& difference) {

@@ -56,6 +56,9 @@ bool is_significant(const Estimate& difference);
 /// difference is not a number or has fewer than 2 replications.
 std::string verdict(Metric m, const Estimate& difference);
 
+/// The same verdict naming the metric `name` (pages name metrics in words: "lower waste").
+std::string verdict(Metric m, const Estimate& difference, std::string_view name);
+
 /// The tone of a verdict, for styling it: a significant difference that is better, worse, or
 /// neutral (a metric without a better direction), or `none` (not significant, not available).
 enum class VerdictTone { better, worse, neutral, none };

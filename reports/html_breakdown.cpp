@@ -9,6 +9,7 @@
 
 #include "reports/comparison.hpp"
 #include "reports/html_page.hpp"
+#include "reports/metric_label.hpp"
 #include "reports/number_format.hpp"
 #include "reports/xml_text.hpp"
 
@@ -52,8 +53,8 @@ std::string metric_table(const RunResult& r, const std::vector<KeyIndex>& index,
                          const std::string& dimension, const std::vector<std::string>& values,
                          Metric m) {
   const std::string_view unit = metric_info(m).unit;
-  HtmlTable table(fmt::format("{} by {}, {} ({})", metric_name(m), dimension,
-                              unit_label(unit, r.info.currency), kEstimateCaption));
+  HtmlTable table(
+      fmt::format("{} by {} ({})", metric_label(m, r.info.currency), dimension, kEstimateCaption));
   std::vector<std::string> header = {dimension};
   header.insert(header.end(), r.policies.begin(), r.policies.end());
   table.header(header);

@@ -36,9 +36,11 @@ pre { background: #f3f5f8; border: 1px solid #d9dee6; padding: 8px 12px; overflo
 .scroll { overflow-x: auto; margin: 0.4em 0 1.2em; }
 table { border-collapse: collapse; font-variant-numeric: tabular-nums; }
 caption { text-align: left; font-weight: 600; padding: 0 0 6px; }
-th, td { padding: 4px 10px; border-bottom: 1px solid #dde2e8; vertical-align: top; }
+th, td { padding: 4px 8px; border-bottom: 1px solid #dde2e8; vertical-align: top; }
 thead th { border-bottom: 2px solid #6b7785; text-align: left; background: #f3f5f8; }
-th.num, td.num { text-align: right; white-space: nowrap; }
+th.num, td.num { text-align: right; }
+ul.sentences { padding-left: 1.2em; }
+ul.sentences li { margin: 0.35em 0; max-width: 72em; }
 tbody th { text-align: left; font-weight: 600; }
 tbody tr:nth-child(even) { background: #f8f9fb; }
 td.better { color: #1b6127; font-weight: 600; }
@@ -71,21 +73,49 @@ std::string class_attribute(std::string_view css_class) {
   return css_class.empty() ? std::string() : fmt::format(R"( class="{}")", css_class);
 }
 
+/// A header may wrap after a dot, underscore or slash (a zero-width space there), so a YAML
+/// path or a field name does not widen its column; hyphens are break points already.
+std::string with_breaks(std::string_view text) {
+  std::string out;
+  for (const char c : text) {
+    out += c;
+    if (c == '.' || c == '_' || c == '/') out += "\u200b";
+  }
+  return out;
+}
+
+/// "12,345 ± 1,234" may wrap before the "±" but not after it, so a narrow column shows the
+/// mean on one line and its half-width on the next (U+00A0 after the sign).
+std::string keep_half_width(std::string_view text) {
+  std::string out;
+  std::size_t from = 0;
+  for (std::size_t at = text.find("\u00b1 "); at != std::string_view::npos;
+       at = text.find("\u00b1 ", from)) {
+    out += text.substr(from, at - from);
+    out += "\u00b1\u00a0";
+    from = at + std::string_view("\u00b1 ").size();
+  }
+  out += text.substr(from);
+  return out;
+}
+
 }  // namespace
 
 HtmlTable::HtmlTable(std::string_view caption) : caption_(xml_escape(caption)) {}
 
 void HtmlTable::row(const std::vector<HtmlCell>& cells) {
   if (rows_ == 0) {
-    for (const HtmlCell& c : cells) numeric_.push_back(c.css_class == "num");
+    for (const HtmlCell& c : cells) {
+      numeric_.push_back(c.css_class == "num" || c.css_class.starts_with("num "));
+    }
   }
   body_ += "<tr>";
   for (const HtmlCell& c : cells) {
+    const std::string text = xml_escape(keep_half_width(c.text));
     if (c.row_header) {
-      body_ += fmt::format(R"(<th scope="row"{}>{}</th>)", class_attribute(c.css_class),
-                           xml_escape(c.text));
+      body_ += fmt::format(R"(<th scope="row"{}>{}</th>)", class_attribute(c.css_class), text);
     } else {
-      body_ += fmt::format("<td{}>{}</td>", class_attribute(c.css_class), xml_escape(c.text));
+      body_ += fmt::format("<td{}>{}</td>", class_attribute(c.css_class), text);
     }
   }
   body_ += "</tr>";
@@ -97,7 +127,7 @@ std::string HtmlTable::str() const {
   for (std::size_t c = 0; c < header_.size(); ++c) {
     const bool numeric = c < numeric_.size() && numeric_[c];
     head += fmt::format(R"(<th scope="col"{}>{}</th>)", class_attribute(numeric ? "num" : ""),
-                        xml_escape(header_[c]));
+                        xml_escape(with_breaks(header_[c])));
   }
   return fmt::format(
       R"(<div class="scroll"><table><caption>{}</caption><thead><tr>{}</tr></thead><tbody>{})"

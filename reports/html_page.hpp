@@ -11,7 +11,8 @@
 namespace larder {
 
 /// A table cell: its text and an optional class ("num" right-aligns numbers; "better",
-/// "worse", "neutral", "none" style verdicts). `row_header` cells are <th scope="row">.
+/// "worse", "neutral", "none" style verdicts; "num better" does both). `row_header` cells are <th
+/// scope="row">.
 struct HtmlCell {
   std::string text;
   std::string_view css_class = {};
@@ -19,8 +20,10 @@ struct HtmlCell {
 };
 
 /// A table with a caption, one header row and body rows, inside a horizontally scrolling box so
-/// wide tables never widen the page. A header cell is right-aligned when the cell under it in
-/// the first row is a number ("num").
+/// wide tables never widen the page. Header cells may also wrap after a dot, underscore or slash,
+/// and number cells wrap before a "±", so a table of eight policies fits a 1280-pixel window
+/// without that box scrolling. A header cell is right-aligned when the cell under it in the first
+/// row is a number ("num").
 class HtmlTable {
  public:
   explicit HtmlTable(std::string_view caption);

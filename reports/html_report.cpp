@@ -8,8 +8,10 @@
 
 #include "reports/comparison.hpp"
 #include "reports/html_breakdown.hpp"
+#include "reports/html_decision.hpp"
 #include "reports/html_page.hpp"
 #include "reports/html_trace.hpp"
+#include "reports/metric_label.hpp"
 #include "reports/number_format.hpp"
 #include "reports/svg_chart.hpp"
 #include "reports/terminal_table.hpp"
@@ -64,7 +66,8 @@ std::string page_header(const RunResult& r) {
 
 /// Links to the sections that `body` holds, then the cautions.
 std::string contents(std::string_view body) {
-  constexpr std::array<std::pair<std::string_view, std::string_view>, 8> kSections = {{
+  constexpr std::array<std::pair<std::string_view, std::string_view>, 9> kSections = {{
+      {"decision", "Decision summary"},
       {"simulated", "What was simulated"},
       {"comparison", "Policies compared"},
       {"charts", "Charts"},
@@ -128,21 +131,40 @@ std::string simulated_section(const RunResult& r, const ReportContext& context) 
 std::string estimates_table(const RunResult& r, const std::vector<Metric>& metrics,
                             std::string_view caption) {
   HtmlTable table(caption);
-  std::vector<std::string> header = {"metric", "unit"};
+  std::vector<std::string> header = {"metric"};
   for (std::size_t p = 0; p < r.policies.size(); ++p) header.push_back(policy_label(r, p));
   table.header(header);
   for (const Metric m : metrics) {
     const std::string_view unit = metric_info(m).unit;
     const std::vector<Estimate> est = estimates(r, m);
     const int decimals = row_decimals(est, unit);
-    std::vector<HtmlCell> row = {{std::string(metric_name(m)), {}, true},
-                                 {unit_label(unit, r.info.currency)}};
+    std::vector<HtmlCell> row = {{metric_label(m, r.info.currency), {}, true}};
     for (const Estimate& e : est) {
       row.push_back({format_estimate(e.mean, half_width(e), unit, decimals), "num"});
     }
     table.row(row);
   }
   return table.str();
+}
+
+/// A metric as a verdict names it: its words in lower case, the unit's kind when two metrics
+/// share the words ("lower waste in kg CO2e").
+std::string verdict_name(Metric m) {
+  std::string words = metric_words(m);
+  if (!words.empty() && words[0] >= 'A' && words[0] <= 'Z' &&
+      (words.size() < 2 || words[1] < 'A' || words[1] > 'Z')) {
+    words[0] = static_cast<char>(words[0] - 'A' + 'a');
+  }
+  switch (m) {
+    case Metric::waste_share:
+      return words + " share";
+    case Metric::waste_kg:
+      return words + " in kg";
+    case Metric::co2e_kg:
+      return words + " in kg CO2e";
+    default:
+      return words;
+  }
 }
 
 std::string_view tone_class(VerdictTone t) {
@@ -160,16 +182,15 @@ std::string_view tone_class(VerdictTone t) {
 
 std::string difference_table(const RunResult& r, int policy, const std::vector<Metric>& metrics) {
   HtmlTable table(difference_title(r, policy));
-  table.header({"metric", "unit", "difference", "95% CI", "verdict"});
+  table.header({"metric", "difference", "95% CI", "verdict"});
   for (const Metric m : metrics) {
     const std::string_view unit = metric_info(m).unit;
     const Estimate d = baseline_difference(r, policy, m);
     const int decimals = estimate_decimals(half_width(d), unit);
-    table.row({{std::string(metric_name(m)), {}, true},
-               {unit_label(unit, r.info.currency, true)},
+    table.row({{metric_label(m, r.info.currency, true), {}, true},
                {format_number(display_value(d.mean, unit), decimals), "num"},
                {format_interval(d.ci_low, d.ci_high, unit, decimals), "num"},
-               {verdict(m, d), tone_class(verdict_tone(m, d))}});
+               {verdict(m, d, verdict_name(m)), tone_class(verdict_tone(m, d))}});
   }
   return table.str();
 }
@@ -201,25 +222,28 @@ std::string bar_chart(const RunResult& r, Metric m) {
   const std::vector<Estimate> est = estimates(r, m);
   const int decimals = row_decimals(est, info.unit);
   BarChart chart;
-  chart.title = fmt::format("{} by policy", info.name);
-  chart.axis_label = fmt::format("{}, {}", info.name, unit_label(info.unit, r.info.currency));
+  chart.title = fmt::format("{} by policy", metric_label(m, r.info.currency));
+  chart.axis_label = metric_label(m, r.info.currency);
   for (std::size_t p = 0; p < est.size(); ++p) {
     const Estimate& e = est[p];
     chart.bars.push_back({policy_label(r, p), display_value(e.mean, info.unit),
                           display_value(half_width(e), info.unit),
                           format_estimate(e.mean, half_width(e), info.unit, decimals)});
   }
-  return html_figure(svg_bar_chart(chart),
-                     fmt::format("{}. Bars: mean over replications; whiskers and numbers: the "
-                                 "95% confidence interval.",
-                                 info.description));
+  const bool dots = zero_hides_differences(chart.bars);
+  return html_figure(
+      svg_bar_chart(chart),
+      fmt::format("{}: {}. {} mean over replications; whiskers and numbers: the 95% confidence "
+                  "interval.{}",
+                  metric_words(m), info.description, dots ? "Dots:" : "Bars:",
+                  dots ? " The axis spans the values, not 0, so that differences show." : ""));
 }
 
 std::string scatter(const RunResult& r) {
   ScatterChart chart;
-  chart.title = "waste_share against in_stock_at_close";
-  chart.x_label = "in_stock_at_close, %";
-  chart.y_label = "waste_share, %";
+  chart.title = "Waste against in stock at close";
+  chart.x_label = metric_label(Metric::in_stock_at_close, r.info.currency);
+  chart.y_label = metric_label(Metric::waste_share, r.info.currency);
   const std::vector<Estimate> x = estimates(r, Metric::in_stock_at_close);
   const std::vector<Estimate> y = estimates(r, Metric::waste_share);
   for (std::size_t p = 0; p < r.policies.size(); ++p) {
@@ -302,7 +326,8 @@ std::string page_footer(const RunResult& r) {
 }  // namespace
 
 std::string html_report(const RunResult& result, const ReportContext& context) {
-  std::string body = html_cautions(context.cautions);
+  std::string body = html_decision_section(result);
+  body += html_cautions(context.cautions);
   body += simulated_section(result, context);
   body += comparison_section(result);
   body += charts_section(result);

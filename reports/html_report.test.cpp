@@ -9,7 +9,9 @@
 #include <nlohmann/json.hpp>
 
 #include "reports/breakdown_csv.hpp"
+#include "reports/decision.hpp"
 #include "reports/markup_check.test.hpp"
+#include "reports/metric_label.hpp"
 #include "reports/number_format.hpp"
 #include "reports/sample_run.test.hpp"
 #include "reports/summary_json.hpp"
@@ -37,7 +39,13 @@ std::vector<std::string> table_row(const std::string& html, const std::string& c
   std::vector<std::string> cells;
   for (std::size_t at = html.find("<td", row); at < row_end; at = html.find("<td", at + 1)) {
     const std::size_t open = html.find('>', at) + 1;
-    cells.push_back(html.substr(open, html.find("</td>", open) - open));
+    std::string cell = html.substr(open, html.find("</td>", open) - open);
+    // Number cells keep a half-width with its sign (U+00A0 after the "\u00b1").
+    for (std::size_t nb = cell.find("\u00b1\u00a0"); nb != std::string::npos;
+         nb = cell.find("\u00b1\u00a0")) {
+      cell.replace(nb, std::string("\u00b1\u00a0").size(), "\u00b1 ");
+    }
+    cells.push_back(cell);
   }
   return cells;
 }
@@ -153,19 +161,20 @@ TEST_CASE("report.html shows summary.json's estimates, rounded as the terminal d
       const double half = (e["ci_high"].get<double>() - e["ci_low"].get<double>()) / 2;
       decimals = std::max(decimals, estimate_decimals(half, unit));
     }
-    const std::vector<std::string> row = table_row(html, "The key metrics", name);
-    REQUIRE(row.size() == 1 + r.policies.size());  // unit, then one cell per policy
+    const std::vector<std::string> row =
+        table_row(html, "The key metrics", xml_escape(metric_label(m, "EUR")));
+    REQUIRE(row.size() == r.policies.size());  // one cell per policy; the unit is in the label
     for (size_t p = 0; p < r.policies.size(); ++p) {
       const auto& e = summary["policies"][p]["metrics"][name];
       const double half = (e["ci_high"].get<double>() - e["ci_low"].get<double>()) / 2;
-      CHECK(row[1 + p] == format_estimate(e["mean"].get<double>(), half, unit, decimals));
+      CHECK(row[p] == format_estimate(e["mean"].get<double>(), half, unit, decimals));
     }
   }
   // By hand from the scipy intervals of the sample (see terminal_table.test.cpp).
-  CHECK(table_row(html, "The key metrics", "waste_share") ==
-        std::vector<std::string>{"%", "12.3 ± 0.8", "10.5 ± 0.8", "12.4 ± 0.7"});
-  CHECK(table_row(html, "The key metrics", "profit") ==
-        std::vector<std::string>{"EUR", "2,570 ± 111", "2,718 ± 122", "2,566 ± 113"});
+  CHECK(table_row(html, "The key metrics", "Waste (% of units delivered)") ==
+        std::vector<std::string>{"12.3 ± 0.8", "10.5 ± 0.8", "12.4 ± 0.7"});
+  CHECK(table_row(html, "The key metrics", "Profit (EUR)") ==
+        std::vector<std::string>{"2,570 ± 111", "2,718 ± 122", "2,566 ± 113"});
 }
 
 TEST_CASE("report.html shows summary.json's paired differences and verdicts", "[html]") {
@@ -179,17 +188,26 @@ TEST_CASE("report.html shows summary.json's paired differences and verdicts", "[
     for (const Metric m : table_metrics(r)) {
       const std::string name(metric_name(m));
       const auto& e = d["metrics"][name];
-      const std::vector<std::string> row = table_row(html, caption, name);
-      REQUIRE(row.size() == 4);  // unit, difference, interval, verdict
-      CHECK(row[3] == e["verdict"].get<std::string>());
+      const std::vector<std::string> row =
+          table_row(html, caption, xml_escape(metric_label(m, "EUR", true)));
+      REQUIRE(row.size() == 3);  // difference, interval, verdict
+      // The same verdict, naming the metric in words instead of its field name.
+      const std::string json_verdict = e["verdict"].get<std::string>();
+      const std::size_t named = json_verdict.find(name);
+      INFO(json_verdict << " | " << row[2]);
+      if (named == std::string::npos) {
+        CHECK(row[2] == json_verdict);
+      } else {
+        CHECK(row[2].substr(0, named) == json_verdict.substr(0, named));
+        CHECK_THAT(row[2], Catch::EndsWith(json_verdict.substr(named + name.size())));
+      }
     }
   }
   // By hand from scipy's paired interval (see terminal_table.test.cpp).
-  CHECK(table_row(html, "newsvendor: difference vs fixed_order", "waste_units") ==
-        std::vector<std::string>{"units", "-19.8", "-22.2 to -17.4",
-                                 "better: lower waste_units (significant)"});
-  CHECK_THAT(html, Catch::Contains("<td class=\"better\">better: lower waste_units (significant)"));
-  CHECK_THAT(html, Catch::Contains("<td class=\"worse\">worse: lower fill_rate (significant)"));
+  CHECK(table_row(html, "newsvendor: difference vs fixed_order", "Waste (units)") ==
+        std::vector<std::string>{"-19.8", "-22.2 to -17.4", "better: lower waste (significant)"});
+  CHECK_THAT(html, Catch::Contains("<td class=\"better\">better: lower waste (significant)"));
+  CHECK_THAT(html, Catch::Contains("<td class=\"worse\">worse: lower fill rate (significant)"));
   // Three policies: the page points to the table of every pair; with two it would not.
   CHECK_THAT(html, Catch::Contains("pairs.csv beside this page compares every pair"));
   RunResult two = r;
@@ -218,7 +236,8 @@ TEST_CASE("report.html breakdown tables hold breakdown.csv's numbers", "[html]")
     const auto& [dimension, key, metric] = where;
     if (metric != "waste_units" && metric != "waste_share" && metric != "fill_rate" &&
         metric != "profit" && metric != "in_stock_at_close") {
-      CHECK(html.find("<caption>" + metric + " by ") == std::string::npos);
+      CHECK(html.find("<caption>" + xml_escape(metric_label(metric, "EUR")) + " by ") ==
+            std::string::npos);
       continue;
     }
     const std::string_view unit = metric == "waste_units" ? "units"
@@ -234,7 +253,8 @@ TEST_CASE("report.html breakdown tables hold breakdown.csv's numbers", "[html]")
       expected.push_back(format_estimate(mean, half, unit, decimals));
     }
     INFO(metric << " by " << dimension << " = " << key);
-    CHECK(table_row(html, metric + " by " + dimension, xml_escape(key)) == expected);
+    CHECK(table_row(html, xml_escape(metric_label(metric, "EUR")) + " by " + dimension,
+                    xml_escape(key)) == expected);
     ++checked;
   }
   CHECK(checked == 5 * 5);  // 5 keys x the 5 metrics the report breaks down
@@ -258,9 +278,10 @@ TEST_CASE("report.html compares planned and achieved levels of plan groups", "[h
 TEST_CASE("report.html has charts for the key metrics and the scatter", "[html]") {
   const RunResult r = sample_with_breakdown();
   const std::string html = html_report(r, sample_context());
-  for (const char* title :
-       {"waste_share by policy", "in_stock_at_close by policy", "fill_rate by policy",
-        "profit by policy", "waste_share against in_stock_at_close"}) {
+  for (const char* title : {"Waste (% of units delivered) by policy",
+                            "In stock at close (% of open store-item-days) by policy",
+                            "Fill rate (% of demand served by the item) by policy",
+                            "Profit (EUR) by policy", "Waste against in stock at close"}) {
     CHECK_THAT(html, Catch::Contains(std::string("aria-label=\"") + title + "\""));
   }
   // Bar labels: the baseline is named as such; value texts are the table's.
@@ -291,7 +312,7 @@ TEST_CASE("report.html: environment, substitution and trace sections when there 
   const std::string html = html_report(r, sample_context());
   CHECK(test::markup_problems(html, "html", "html").empty());
   CHECK_THAT(html, Catch::Contains("<h2>Waste in kilograms and CO2e</h2>"));
-  CHECK_THAT(html, Catch::Contains("aria-label=\"co2e_kg by policy\""));
+  CHECK_THAT(html, Catch::Contains("aria-label=\"Waste (kg CO2e) by policy\""));
   // waste_kg of the baseline: half of waste_units, 126.8 ± 11.1 -> 63.4 ± 5.5 (by hand).
   CHECK_THAT(html, Catch::Contains(">63.4 ± 5.5</text>"));
   CHECK(table_row(html, "Units sold to customers who found", "roll") ==
@@ -310,6 +331,51 @@ TEST_CASE("report.html: environment, substitution and trace sections when there 
   CHECK_THAT(html, Catch::Contains(">scored from day 1</text>"));
   CHECK_THAT(html, Catch::Contains("Not shown: net."));
   CHECK_THAT(html, Catch::Contains("href=\"#daily\""));
+}
+
+TEST_CASE("report.html opens with the decision summary", "[html]") {
+  RunResult r = sample_with_breakdown();
+  r.metrics.push_back(Metric::waste_kg);
+  r.metrics.push_back(Metric::co2e_kg);
+  for (auto& per_rep : r.values) {
+    for (auto& v : per_rep) {
+      at(v, Metric::waste_kg) = 0.5 * at(v, Metric::waste_units);
+      at(v, Metric::co2e_kg) = 1.25 * at(v, Metric::waste_units);
+    }
+  }
+  const std::string html = html_report(r, sample_context());
+  CHECK(test::markup_problems(html, "html", "html").empty());
+  // First on the page, before the cautions, and first in the contents.
+  const std::size_t decision = html.find("<section id=\"decision\">");
+  REQUIRE(decision != std::string::npos);
+  CHECK(decision < html.find("id=\"cautions\""));
+  CHECK(decision < html.find("<section id=\"simulated\">"));
+  CHECK(html.find("href=\"#decision\"") < html.find("href=\"#simulated\""));
+  // 91 days, 14 of warm-up: 77 scored days, scaled by 365 / 77.
+  CHECK_THAT(html, Catch::Contains("the sums over the 77 scored days"));
+  // One sentence per policy, as the pure function builds it.
+  for (const DecisionRow& row : decision_rows(r)) {
+    CHECK_THAT(html, Catch::Contains("<li>" + xml_escape(decision_sentence(row, "EUR")) + "</li>"));
+  }
+  // The table: tonnes a year. newsvendor's waste_units difference is -19.8 (-22.2 to -17.4),
+  // so waste_kg's is half of that, in tonnes a year x 365 / 77 / 1000: -0.0469 (-0.0526 to
+  // -0.0412) (by hand).
+  const std::vector<std::string> row =
+      table_row(html, "Change per year against fixed_order", "newsvendor");
+  REQUIRE(row.size() == 4);  // waste, CO2e, customers lost, profit
+  CHECK_THAT(row[0], Catch::StartsWith("-0.047"));
+  CHECK_THAT(html, Catch::Contains("<th scope=\"col\" class=\"num\">Waste (t CO2e a year)</th>"));
+  CHECK_THAT(html, Catch::Contains("<td class=\"num better\">-0.047"));
+  // The chart: CO2e per year against fill rate, the baseline ringed and named.
+  CHECK_THAT(html, Catch::Contains("aria-label=\"Waste (t CO2e a year) against fill rate\""));
+  CHECK_THAT(html, Catch::Contains(">fixed_order (baseline)</text>"));
+  CHECK_THAT(html, Catch::Contains(R"(fill="none" stroke="#222222" stroke-width="1.5")"));
+  // One policy: no comparison, no decision section.
+  RunResult one = r;
+  one.policies.resize(1);
+  one.values.resize(1);
+  one.breakdown.resize(1);
+  CHECK(html_report(one, sample_context()).find("id=\"decision\"") == std::string::npos);
 }
 
 TEST_CASE("report_context describes the scenario in lines worked by hand", "[html]") {

@@ -44,6 +44,15 @@ inline ProcessResult run_python(std::string_view script, const std::string& args
   return run_command_line(fmt::format("{} {} {}", LARDER_PYTHON, file.string(), args));
 }
 
+/// The chromium executable on PATH, or "" when there is none.
+inline std::string find_chromium() {
+  for (const char* name : {"chromium", "chromium-browser"}) {
+    const ProcessResult r = run_command_line(fmt::format("command -v {}", name));
+    if (r.code == 0 && !r.output.empty()) return r.output.substr(0, r.output.find('\n'));
+  }
+  return {};
+}
+
 /// Checks a file: `xml` (well-formed, root element named by the second argument) or `html`
 /// (also well-formed XML with root html, tags nest as HTML, and the page is self-contained).
 inline constexpr std::string_view kMarkupScript = R"py(

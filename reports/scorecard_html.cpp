@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "reports/html_page.hpp"
+#include "reports/metric_label.hpp"
 #include "reports/number_format.hpp"
 #include "reports/scorecard_text.hpp"
 #include "reports/svg_chart.hpp"
@@ -51,7 +52,7 @@ std::string scorecard_html(const Scorecard& c) {
   for (const auto& p : c.policies) head.push_back(p);
   totals.header(head);
   for (const Metric m : ms) {
-    std::vector<HtmlCell> row{{std::string(metric_name(m)), {}, true}};
+    std::vector<HtmlCell> row{{metric_label(m, c.currency), {}, true}};
     for (size_t p = 0; p < c.policies.size(); ++p) {
       row.push_back({value_text(at(c.totals[p], m), m), "num"});
     }
@@ -62,7 +63,7 @@ std::string scorecard_html(const Scorecard& c) {
   for (size_t p = 1; p < c.policies.size(); ++p) dhead.push_back("vs " + c.policies[p]);
   diff.header(dhead);
   for (const Metric m : ms) {
-    std::vector<HtmlCell> row{{std::string(metric_name(m)), {}, true}};
+    std::vector<HtmlCell> row{{metric_label(m, c.currency, true), {}, true}};
     for (size_t p = 1; p < c.policies.size(); ++p) {
       const double d = at(c.totals[0], m) - at(c.totals[p], m);
       const int better = metric_info(m).better;
@@ -78,7 +79,7 @@ std::string scorecard_html(const Scorecard& c) {
   LineChart chart;
   chart.title = fmt::format("Cumulative profit of {} minus each policy", c.trainee);
   chart.x_label = "drill day";
-  chart.y_label = fmt::format("profit difference, {}", c.currency);
+  chart.y_label = fmt::format("profit difference ({})", metric_unit(Metric::profit, c.currency));
   for (int d = 0; d < c.days; ++d) chart.x.push_back(d + 1);
   for (size_t p = 1; p < c.policies.size(); ++p) {
     LineSeries s{"vs " + c.policies[p], {}};
@@ -93,8 +94,8 @@ std::string scorecard_html(const Scorecard& c) {
   HtmlTable days("Day by day");
   std::vector<std::string> yhead{"day", "weekday"};
   for (const auto& p : c.policies) {
-    yhead.push_back(p + " profit");
-    yhead.push_back(p + " waste");
+    yhead.push_back(fmt::format("{}: {}", p, metric_label(Metric::profit, c.currency)));
+    yhead.push_back(fmt::format("{}: {}", p, metric_label(Metric::waste_units, c.currency)));
   }
   days.header(yhead);
   for (size_t d = 0; d < static_cast<size_t>(c.days); ++d) {

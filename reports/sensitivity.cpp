@@ -19,7 +19,7 @@ std::vector<TornadoRow> tornado(const std::vector<Setting>& varies,
     if (k == base.baseline) continue;
     size_t point = 1;
     for (const Setting& s : varies) {
-      TornadoRow row{s.path, base.policies[p], s.values, {}, {}, 0.0, false};
+      TornadoRow row{s.path, base.policies[p], s.values, {}, {}, 0.0};
       row.base = baseline_difference(base, k, Metric::profit);
       double lo = row.base.mean;
       double hi = row.base.mean;
@@ -28,7 +28,6 @@ std::vector<TornadoRow> tornado(const std::vector<Setting>& varies,
         row.difference.push_back(e);
         lo = std::min(lo, e.mean);
         hi = std::max(hi, e.mean);
-        row.flips = row.flips || (e.mean > 0.0) != (row.base.mean > 0.0);
       }
       row.swing = hi - lo;
       rows.push_back(std::move(row));
@@ -67,7 +66,7 @@ std::string tornado_table(const std::vector<TornadoRow>& rows, const std::string
       line += fmt::format("  {}: {:>10.0f} ± {:<8.0f}", r.values[v], r.difference[v].mean,
                           r.difference[v].ci_high - r.difference[v].mean);
     }
-    line += fmt::format("  swing {:.0f}{}\n", r.swing, r.flips ? "  RANKING FLIPS" : "");
+    line += fmt::format("  swing {:.0f}\n", r.swing);
     out += line;
   }
   return out;

@@ -1,8 +1,7 @@
 #pragma once
 // Sensitivity of a comparison (`larder sweep --vary`): how the paired profit difference of
 // each policy against the baseline moves when one uncertain input changes at a time (a tornado
-// table, widest swing first), and whether the sign of the difference, i.e. the ranking against
-// the baseline, survives.
+// table, widest swing first). Whether the ranking survives is policy_ranks.hpp's question.
 
 #include <string>
 #include <vector>
@@ -19,7 +18,6 @@ struct TornadoRow {
   std::vector<Estimate> difference;  ///< profit, policy minus baseline, at each value
   Estimate base;                     ///< at the base scenario
   double swing = 0;                  ///< largest minus smallest mean difference, base included
-  bool flips = false;                ///< some mean difference has the other sign than the base
 };
 
 /// One row per varied input and non-baseline policy, widest swing first. `points` are those

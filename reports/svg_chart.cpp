@@ -3,17 +3,19 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <initializer_list>
 #include <limits>
 
 #include "reports/chart_scale.hpp"
+#include "reports/label_layout.hpp"
 #include "reports/svg_writer.hpp"
 
 namespace larder {
 
 namespace {
 
-constexpr std::array<std::string_view, 6> kPalette = {"#1f5fa8", "#b34d00", "#2e7d32",
-                                                      "#7b3f9e", "#a3195b", "#555555"};
+constexpr std::array<std::string_view, 6> kPalette = {"#0072b2", "#b34d00", "#00775a",
+                                                      "#a8457f", "#8a5d00", "#555555"};
 constexpr std::array<std::string_view, 6> kDashes = {"", "7 3", "2 3", "9 3 2 3", "4 4", "1 2"};
 constexpr std::string_view kGrid = "#d9d9d9";
 constexpr std::string_view kAxis = "#6b6b6b";
@@ -125,21 +127,28 @@ std::pair<double, double> data_extent(const Range& items, Lo lo_of, Hi hi_of) {
 constexpr double kBarRow = 30.0;
 constexpr double kBarHeight = 16.0;
 
+/// A bar from 0, or with `dot`, a dot at the value (an axis that does not start at 0 must not
+/// draw lengths).
 void draw_bar(SvgDocument& svg, const Bar& bar, const LinearScale& x, double label_width,
-              const Frame& f, double cy) {
+              const Frame& f, double cy, bool dot) {
   svg.text({f.left - 10.0, cy + 4.0}, fit_text(bar.label, label_width), {Anchor::end, 12.0});
-  const double x0 = x(0.0);
+  const double x0 = dot ? f.left : x(0.0);
   double text_x = x0;
   if (finite(bar.value)) {
     const double xv = x(bar.value);
-    svg.rect({std::min(x0, xv), cy - kBarHeight / 2.0}, std::fabs(xv - x0), kBarHeight, kBarFill,
-             {kBarOutline, 1.0});
+    if (dot) {
+      svg.line({f.left, cy}, {xv, cy}, {kGrid, 1.0, "2 3"});
+    } else {
+      svg.rect({std::min(x0, xv), cy - kBarHeight / 2.0}, std::fabs(xv - x0), kBarHeight, kBarFill,
+               {kBarOutline, 1.0});
+    }
     text_x = std::max(x0, xv);
     const double h = half_or_zero(bar.half_width);
     if (h > 0.0) {
       error_bar_x(svg, x(bar.value - h), x(bar.value + h), cy, 6.0);
       text_x = std::max(text_x, x(bar.value + h));
     }
+    if (dot) svg.circle({xv, cy}, 5.0, kBarOutline, {"#ffffff", 1.0});
   }
   svg.text({text_x + 6.0, cy + 4.0}, bar.value_text, {Anchor::start, 12.0});
 }
@@ -213,7 +222,149 @@ double draw_legend(SvgDocument* svg, std::span<const LineSeries> series, double 
   return y + 10.0;
 }
 
+// --- series chart -----------------------------------------------------------------------
+
+/// Marker `shape` (0 .. kMarkerShapes - 1) of radius `r` at `c`.
+void draw_marker(SvgDocument& svg, std::size_t shape, Point c, double r, std::string_view fill,
+                 const Stroke& outline) {
+  const auto poly = [&](std::initializer_list<Point> offsets) {
+    std::vector<Point> pts;
+    for (const Point& o : offsets) pts.push_back({c.x + o.x * r, c.y + o.y * r});
+    svg.polygon(pts, fill, outline);
+  };
+  switch (shape % kMarkerShapes) {
+    case 0:
+      svg.circle(c, r, fill, outline);
+      break;
+    case 1:
+      svg.rect({c.x - 0.9 * r, c.y - 0.9 * r}, 1.8 * r, 1.8 * r, fill, outline);
+      break;
+    case 2:
+      poly({{0.0, -1.2}, {1.1, 0.8}, {-1.1, 0.8}});
+      break;
+    case 3:
+      poly({{0.0, -1.3}, {1.3, 0.0}, {0.0, 1.3}, {-1.3, 0.0}});
+      break;
+    case 4:
+      poly({{0.0, 1.2}, {1.1, -0.8}, {-1.1, -0.8}});
+      break;
+    case 5:
+      poly({{-1.2, 0.0}, {0.8, -1.1}, {0.8, 1.1}});
+      break;
+    default:
+      poly({{1.2, 0.0}, {-0.8, -1.1}, {-0.8, 1.1}});
+      break;
+  }
+}
+
+constexpr double kMarkerRadius = 4.5;
+constexpr double kEmphasisRadius = 7.0;
+
+/// The legend of a series chart (line sample, marker, name), wrapping across rows from `top`;
+/// returns the y below the last row.
+double draw_series_legend(SvgDocument* svg, std::span<const PointSeries> series, bool connect,
+                          double top, double picture_width) {
+  double x = kMargin;
+  double y = top;
+  for (std::size_t i = 0; i < series.size(); ++i) {
+    const double w = 30.0 + text_width(series[i].name) + 18.0;
+    if (x > kMargin && x + w > picture_width - kMargin) {
+      x = kMargin;
+      y += 18.0;
+    }
+    if (svg != nullptr) {
+      const std::string_view colour = kPalette[i % kPalette.size()];
+      if (connect) {
+        svg->line({x, y - 4.0}, {x + 24.0, y - 4.0}, {colour, 2.0, kDashes[i % kDashes.size()]});
+      }
+      draw_marker(*svg, i, {x + 12.0, y - 4.0}, kMarkerRadius, colour, {"#ffffff", 1.0});
+      svg->text({x + 30.0, y}, series[i].name, {Anchor::start, 12.0});
+    }
+    x += w;
+  }
+  return y + 10.0;
+}
+
 }  // namespace
+
+std::string svg_series_chart(const SeriesChart& chart) {
+  std::vector<PointSeries> series;
+  for (const PointSeries& s : chart.series) {
+    PointSeries kept{s.name, {}};
+    for (const SeriesPoint& p : s.points) {
+      if (finite(p.x) && finite(p.y)) kept.points.push_back(p);
+    }
+    series.push_back(std::move(kept));
+  }
+  const Frame f{64.0, 56.0, chart.width - 24.0, 372.0};
+  const double legend_top = f.bottom + 62.0;
+  const double height = draw_series_legend(nullptr, series, chart.connect, legend_top, chart.width);
+  std::vector<SeriesPoint> all;
+  for (const PointSeries& s : series) all.insert(all.end(), s.points.begin(), s.points.end());
+  const auto [x_lo, x_hi] = data_extent(
+      all, [](const SeriesPoint& p) { return p.x - half_or_zero(p.x_half); },
+      [](const SeriesPoint& p) { return p.x + half_or_zero(p.x_half); });
+  const auto [y_lo, y_hi] = data_extent(
+      all, [](const SeriesPoint& p) { return p.y - half_or_zero(p.y_half); },
+      [](const SeriesPoint& p) { return p.y + half_or_zero(p.y_half); });
+  const Axis ax = nice_axis(x_lo, x_hi);
+  const Axis ay = nice_axis(y_lo, y_hi);
+  const LinearScale x(ax.lo, ax.hi, f.left, f.right);
+  const LinearScale y(ay.lo, ay.hi, f.bottom, f.top);
+
+  SvgDocument svg(chart.width, height, chart.title);
+  draw_title(svg, chart.title);
+  draw_value_axis_x(svg, ax, ax.ticks, x, f, chart.x_label);
+  draw_value_axis_y(svg, ay, y, f, chart.y_label);
+  std::vector<LabelRequest> requests;
+  std::vector<std::string> texts;
+  std::vector<LabelBox> markers;
+  for (std::size_t i = 0; i < series.size(); ++i) {
+    const std::string_view colour = kPalette[i % kPalette.size()];
+    std::vector<Point> at;
+    for (const SeriesPoint& p : series[i].points) at.push_back({x(p.x), y(p.y)});
+    if (chart.connect && at.size() > 1) {
+      svg.polyline(at, {colour, 2.0, kDashes[i % kDashes.size()]});
+    }
+    for (std::size_t k = 0; k < at.size(); ++k) {
+      const SeriesPoint& p = series[i].points[k];
+      const double xh = half_or_zero(p.x_half);
+      const double yh = half_or_zero(p.y_half);
+      if (xh > 0.0) error_bar_x(svg, x(p.x - xh), x(p.x + xh), at[k].y, 3.0);
+      if (yh > 0.0) error_bar_y(svg, at[k].x, y(p.y - yh), y(p.y + yh), 3.0);
+      const double r = p.emphasised ? kEmphasisRadius : kMarkerRadius;
+      if (p.emphasised) svg.circle(at[k], r + 4.0, "none", {kInk, 1.5});
+      draw_marker(svg, i, at[k], r, colour, {"#ffffff", 1.0});
+      markers.push_back({at[k].x - r, at[k].y - r, at[k].x + r, at[k].y + r});
+      // Points of a series drawn at one place share one label: "0.7, 0.8".
+      bool drawn_before = false;
+      for (std::size_t j = 0; j < k; ++j) {
+        drawn_before = drawn_before ||
+                       (std::fabs(at[j].x - at[k].x) < 1.0 && std::fabs(at[j].y - at[k].y) < 1.0);
+      }
+      std::string label = p.label;
+      for (std::size_t j = k + 1; j < at.size() && !drawn_before; ++j) {
+        const std::string& other = series[i].points[j].label;
+        if (!other.empty() && std::fabs(at[j].x - at[k].x) < 1.0 &&
+            std::fabs(at[j].y - at[k].y) < 1.0) {
+          label += (label.empty() ? "" : ", ") + other;
+        }
+      }
+      if (!label.empty() && !drawn_before) {
+        requests.push_back({at[k].x, at[k].y, text_width(label, 11.0), 12.0});
+        texts.push_back(std::move(label));
+      }
+    }
+  }
+  const std::vector<std::optional<LabelBox>> spots =
+      place_labels(requests, markers, {f.left, f.top - 14.0, chart.width - 4.0, f.bottom});
+  for (std::size_t k = 0; k < spots.size(); ++k) {
+    if (!spots[k]) continue;
+    svg.text({spots[k]->x0, spots[k]->y1 - 2.0}, texts[k], {Anchor::start, 11.0, false, kInk});
+  }
+  draw_series_legend(&svg, series, chart.connect, legend_top, chart.width);
+  return svg.str();
+}
 
 std::span<const std::string_view> chart_palette() {
   return kPalette;
@@ -221,6 +372,23 @@ std::span<const std::string_view> chart_palette() {
 
 std::span<const std::string_view> chart_dashes() {
   return kDashes;
+}
+
+bool zero_hides_differences(std::span<const Bar> bars) {
+  double lo = kInf;
+  double hi = -kInf;
+  double top = 0.0;
+  int n = 0;
+  for (const Bar& b : bars) {
+    if (!finite(b.value)) continue;
+    const double h = half_or_zero(b.half_width);
+    lo = std::min(lo, b.value - h);
+    hi = std::max(hi, b.value + h);
+    top = std::max(top, std::fabs(b.value) + h);
+    ++n;
+  }
+  if (n < 2 || top == 0.0 || lo * hi <= 0.0) return false;  // 0 is among the data
+  return hi - lo < kVisibleSpread * top;
 }
 
 std::string svg_bar_chart(const BarChart& chart) {
@@ -239,18 +407,22 @@ std::string svg_bar_chart(const BarChart& chart) {
   auto [lo, hi] = data_extent(
       chart.bars, [](const Bar& b) { return b.value - half_or_zero(b.half_width); },
       [](const Bar& b) { return b.value + half_or_zero(b.half_width); });
+  const bool dots = chart.axis == BarAxis::data ||
+                    (chart.axis == BarAxis::automatic && zero_hides_differences(chart.bars));
   const Axis axis =
-      nice_axis(std::min(finite(lo) ? lo : 0.0, 0.0), std::max(finite(hi) ? hi : 0.0, 0.0));
+      dots ? nice_axis(lo, hi)
+           : nice_axis(std::min(finite(lo) ? lo : 0.0, 0.0), std::max(finite(hi) ? hi : 0.0, 0.0));
   const LinearScale x(axis.lo, axis.hi, f.left, f.right);
 
   SvgDocument svg(chart.width, height, chart.title);
   draw_title(svg, chart.title);
-  draw_value_axis_x(svg, axis, axis.ticks, x, f, chart.axis_label);
+  draw_value_axis_x(svg, axis, axis.ticks, x, f,
+                    dots ? chart.axis_label + " (the axis does not start at 0)" : chart.axis_label);
   for (std::size_t i = 0; i < chart.bars.size(); ++i) {
     draw_bar(svg, chart.bars[i], x, label_width, f,
-             f.top + (static_cast<double>(i) + 0.5) * kBarRow);
+             f.top + (static_cast<double>(i) + 0.5) * kBarRow, dots);
   }
-  svg.line({x(0.0), f.top}, {x(0.0), f.bottom}, {kInk, 1.0});
+  if (!dots) svg.line({x(0.0), f.top}, {x(0.0), f.bottom}, {kInk, 1.0});
   return svg.str();
 }
 

@@ -79,6 +79,17 @@ void SvgDocument::polyline(std::span<const Point> points, const Stroke& stroke) 
                        stroke_attributes(stroke));
 }
 
+void SvgDocument::polygon(std::span<const Point> points, std::string_view fill,
+                          const Stroke& outline) {
+  std::string coords;
+  for (const Point& p : points) {
+    if (!coords.empty()) coords += ' ';
+    coords += num(p.x) + ',' + num(p.y);
+  }
+  body_ += fmt::format(R"(<polygon points="{}" fill="{}"{}/>)", coords, fill,
+                       stroke_attributes(outline));
+}
+
 void SvgDocument::text(Point at, std::string_view text, const TextStyle& style) {
   body_ += fmt::format(R"(<text x="{}" y="{}" font-size="{}" fill="{}")", num(at.x), num(at.y),
                        num(style.size), style.fill);

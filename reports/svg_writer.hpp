@@ -46,6 +46,8 @@ class SvgDocument {
             const Stroke& outline);
   void circle(Point centre, double radius, std::string_view fill, const Stroke& outline);
   void polyline(std::span<const Point> points, const Stroke& stroke);
+  /// A closed shape through `points`, filled.
+  void polygon(std::span<const Point> points, std::string_view fill, const Stroke& outline);
   void text(Point at, std::string_view text, const TextStyle& style = {});
   /// The finished <svg> element.
   std::string str() const { return body_ + "</svg>"; }

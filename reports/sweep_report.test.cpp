@@ -12,6 +12,7 @@
 #include "reports/markup_check.test.hpp"
 #include "reports/number_format.hpp"
 #include "reports/sample_run.test.hpp"
+#include "reports/svg_chart.hpp"
 #include "reports/xml_text.hpp"
 
 namespace larder {
@@ -40,27 +41,32 @@ std::size_t count(const std::string& text, const std::string& needle) {
   return n;
 }
 
-TEST_CASE("sweep.html: frontier labels, the rows table and well-formed markup", "[html]") {
+TEST_CASE("sweep.html: a line per policy, frontier rows ringed, the rows table", "[html]") {
   const std::vector<Setting> settings = {{"policies.*.quantity.target", {"0.6", "0.8"}}};
   const std::vector<SweepPoint> points = {{{"0.6"}, shifted_run(0.0)}, {{"0.8"}, shifted_run(0.1)}};
   const FrontierMarks marks = sweep_frontiers(points);
   const std::string html = sweep_html(settings, points, marks);
   CHECK(test::markup_problems(html, "html", "html").empty());
 
+  // Three charts, each with one line per policy through its two points, in the policy's own
+  // colour (the first three of the palette) and named in the legend.
+  CHECK(count(html, "<polyline ") == 9);
+  for (std::size_t p = 0; p < 3; ++p) {
+    INFO(p);
+    CHECK(count(html, fmt::format(R"(fill="none" stroke="{}")", chart_palette()[p])) == 3);
+    CHECK(count(html, ">" + xml_escape(points[0].result.policies[p]) + "</text>") == 3);
+  }
+  CHECK_THAT(html, Catch::Contains("aria-label=\"Profit against in stock at close\""));
+  CHECK_THAT(html, Catch::Contains("In stock at close (% of open store-item-days)</text>"));
+  // Frontier rows are ringed: one ring per mark in the in-stock and the profit charts.
+  std::size_t rings = 0;
   std::size_t row = 0;
   std::size_t on_front = 0;
   for (const SweepPoint& pt : points) {
     const RunResult& r = pt.result;
     for (std::size_t p = 0; p < r.policies.size(); ++p, ++row) {
-      const std::string label = xml_escape(r.policies[p] + " @ " + pt.values[0]);
-      const std::string marked = label + " " + std::string(kFrontierMark);
-      // Each row appears once per chart; marked in a chart exactly when sweep_frontiers says.
-      const int in_stock_marked = marks.waste_in_stock[row] ? 1 : 0;
-      const int profit_marked = marks.profit_waste[row] ? 1 : 0;
-      CHECK(count(html, marked + "<") == static_cast<std::size_t>(in_stock_marked + profit_marked));
-      CHECK(count(html, label + "<") ==
-            static_cast<std::size_t>(2 - in_stock_marked - profit_marked));
-      on_front += static_cast<std::size_t>(in_stock_marked);
+      rings += (marks.waste_in_stock[row] ? 1 : 0) + (marks.profit_waste[row] ? 1 : 0);
+      on_front += marks.waste_in_stock[row] ? 1 : 0;
       // The table's numbers as the terminal prints them (1 decimal of %, profit in units).
       const int k = static_cast<int>(p);
       const std::string waste =
@@ -76,38 +82,73 @@ TEST_CASE("sweep.html: frontier labels, the rows table and well-formed markup", 
             std::string::npos);
     }
   }
+  CHECK(count(html, R"(fill="none" stroke="#222222" stroke-width="1.5")") == rings);
   CHECK(on_front > 0);
   CHECK(on_front < row);
   // Hand check of one cell: newsvendor at 0.6, waste shares 0.099 0.109 0.097 0.107 0.113 have
   // mean 0.105, so 10.5%.
   CHECK(html.find("<td>newsvendor</td><td class=\"num\">10.5</td>") != std::string::npos);
+  CHECK_THAT(html,
+             Catch::Contains("<th scope=\"col\" class=\"num\">Waste (% of units delivered)</th>"));
 }
 
-TEST_CASE("sweep.html for --vary: the tornado table and swing bars", "[html]") {
+TEST_CASE("sweep.html for a grid of two settings: a line per policy and first value", "[html]") {
+  const std::vector<Setting> settings = {{"items.*.price", {"1", "2"}},
+                                         {"policies.*.quantity.target", {"0.6", "0.8"}}};
+  const std::vector<SweepPoint> points = {{{"1", "0.6"}, shifted_run(0.0)},
+                                          {{"1", "0.8"}, shifted_run(0.1)},
+                                          {{"2", "0.6"}, shifted_run(0.05)},
+                                          {{"2", "0.8"}, shifted_run(0.15)}};
+  const std::string html = sweep_html(settings, points, sweep_frontiers(points));
+  CHECK(test::markup_problems(html, "html", "html").empty());
+  CHECK(count(html, "<polyline ") == 3 * 6);  // 3 charts x 3 policies x 2 prices
+  CHECK(count(html, ">newsvendor, price=2</text>") == 3);
+}
+
+TEST_CASE("sweep.html for --vary: ranks, the best that changes, the tornado table", "[html]") {
   const std::vector<SweepPoint> points = {{{}, test::sample_run()}};
   const Estimate base{200, 10, 180, 220, 5};
-  const std::vector<TornadoRow> rows = {{"price",
-                                         "newsvendor",
-                                         {"-10%", "+10%"},
-                                         {{-50, 5, -60, -40, 5}, {450, 5, 440, 460, 5}},
-                                         base,
-                                         500,
-                                         true},
-                                        {"unit_cost",
-                                         "cautious, v2",
-                                         {"-20%"},
-                                         {{1250.4, 5, 1240.4, 1260.4, 5}},
-                                         base,
-                                         1050.4,
-                                         false}};
-  const std::string html = sensitivity_html(points, rows);
+  const std::vector<TornadoRow> rows = {
+      {"price",
+       "newsvendor",
+       {"-10%", "+10%"},
+       {{-50, 5, -60, -40, 5}, {450, 5, 440, 460, 5}},
+       base,
+       500},
+      {"unit_cost", "cautious, v2", {"-20%"}, {{1250.4, 5, 1240.4, 1260.4, 5}}, base, 1050.4}};
+  const auto rank_point = [](std::string input, std::string value, std::vector<double> means) {
+    RankPoint p;
+    p.input = std::move(input);
+    p.value = std::move(value);
+    p.means = std::move(means);
+    return p;
+  };
+  const std::vector<std::string> policies = {"fixed_order", "newsvendor", "cautious, v2"};
+  RankTable profit =
+      rank_table("profit", +1, policies,
+                 {rank_point("base", "", {10, 30, 20}), rank_point("price", "-10%", {10, 20, 30}),
+                  rank_point("price", "+10%", {10, 40, 20})});
+  profit.points[1].change_clear = true;
+  const RankTable waste =
+      rank_table("waste_units", -1, policies,
+                 {rank_point("base", "", {10, 30, 20}), rank_point("price", "-10%", {11, 31, 21}),
+                  rank_point("price", "+10%", {9, 29, 19})});
+  const std::string html = sensitivity_html(points, rows, {profit, waste});
   CHECK(test::markup_problems(html, "html", "html").empty());
   CHECK(html.find("<th scope=\"row\">newsvendor</th><td>price</td>") != std::string::npos);
-  CHECK(html.find("-10%: -50 ± 10; +10%: 450 ± 10") != std::string::npos);
-  CHECK(html.find("<td class=\"num\">1,050</td><td class=\"neutral\">holds</td>") !=
-        std::string::npos);
-  CHECK(html.find("500 (ranking flips)") != std::string::npos);
+  CHECK(html.find("-10%: -50 \u00b1\u00a010; +10%: 450 \u00b1\u00a010") != std::string::npos);
+  CHECK(html.find("<td class=\"num\">1,050</td></tr>") != std::string::npos);
   CHECK(html.find("price") < html.find("unit_cost"));
+  // Ranks: at price -10% the best on profit changes from newsvendor to cautious, v2.
+  CHECK_THAT(html,
+             Catch::Contains("<th scope=\"row\">price</th><td>-10%</td><td class=\"num\">3</td>"
+                             "<td class=\"num\">2</td><td class=\"num\">1</td><td>cautious, "
+                             "v2</td><td class=\"worse\">yes</td>"));
+  CHECK_THAT(html, Catch::Contains("On Profit (EUR), newsvendor is the best at the base, but not "
+                                   "at: price -10%."));
+  CHECK_THAT(html, Catch::Contains("On Waste (units), fixed_order is the best at the base and at "
+                                   "every value tried."));
+  CHECK_THAT(html, Catch::Contains("<td class=\"neutral\">no</td>"));
 }
 
 TEST_CASE("allocation html: the plan groups table and level bars", "[html]") {

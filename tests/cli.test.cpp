@@ -247,6 +247,38 @@ TEST_CASE("larder allocate prints and writes a network plan", "[cli]") {
   CHECK(bad.err.find("per-item") != std::string::npos);
 }
 
+TEST_CASE("larder sweep --vary ranks the policies on profit and the chosen waste metric",
+          "[cli][sweep]") {
+  const fs::path scenario = write_scenario("vary.yaml", kSmall);
+  const fs::path out = scratch("vary-out");
+  const Outcome o =
+      larder(fmt::format("sweep {} --vary price=-10%,+10% --waste-metric waste_share "
+                         "-r 3 --quiet --out {}",
+                         scenario.string(), out.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(o.out.find("ranks on profit (higher is better; 1 = best)") != std::string::npos);
+  CHECK(o.out.find("ranks on waste_share (lower is better; 1 = best)") != std::string::npos);
+  CHECK(o.out.find("RANKING FLIPS") == std::string::npos);
+  const auto rows = lines(slurp(out / "ranks.csv"));
+  // Header, then 3 runs (base, -10%, +10%) x 2 policies x 2 metrics.
+  REQUIRE(rows.size() == 1 + 3 * 2 * 2);
+  CHECK(rows[0] == "input,value,metric,policy,mean,rank,best,best_changes");
+  CHECK(rows[1].rfind("base,,profit,fixed,", 0) == 0);
+  CHECK(rows[7].rfind("base,,waste_share,fixed,", 0) == 0);
+  CHECK(fs::exists(out / "sensitivity.csv"));
+  CHECK_THAT(slurp(out / "sweep.html"), Catch::Contains("Does the best policy stay the best?"));
+  // A metric the scenario does not report, or a misspelt one, is bad input with a hint.
+  const Outcome no_co2e =
+      larder(fmt::format("sweep {} --vary price=-10% --waste-metric co2e_kg", scenario.string()));
+  CHECK(no_co2e.code == 2);
+  CHECK(no_co2e.err.find("--waste-metric co2e_kg: not a metric") != std::string::npos);
+  const Outcome misspelt = larder(
+      fmt::format("sweep {} --vary price=-10% --waste-metric wast_units", scenario.string()));
+  CHECK(misspelt.code == 2);
+  CHECK(misspelt.err.find("did you mean waste_units?") != std::string::npos);
+}
+
 TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {
   std::string text = kSmall;
   text.replace(text.find("shelf_life_days: 2"), 18, "shelf_life_days: 0");

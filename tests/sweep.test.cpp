@@ -7,6 +7,7 @@
 
 #include <catch2/catch.hpp>
 
+#include "reports/policy_ranks.hpp"
 #include "reports/sensitivity.hpp"
 #include "tests/fixture.hpp"
 
@@ -103,9 +104,9 @@ RunResult with_differences(const std::vector<double>& diff) {
   return r;
 }
 
-TEST_CASE("tornado: swings by hand, widest first, and a flipped ranking", "[sweep]") {
+TEST_CASE("tornado: swings by hand, widest first; ranks: the best changes", "[sweep]") {
   // Base difference +2 (mean of 1, 2, 3). Input x: +1 and +5 (swing 5 - 1 = 4). Input y: -1
-  // and +2 (swing 2 - (-1) = 3, and -1 flips the sign against the base).
+  // and +2 (swing 2 - (-1) = 3, and at -1 the baseline becomes the best).
   const std::vector<Setting> varies = {{"x", {"lo", "hi"}}, {"y", {"lo", "hi"}}};
   std::vector<SweepPoint> points = {{{}, with_differences({1, 2, 3})},
                                     {{"x", "lo"}, with_differences({1, 1, 1})},
@@ -116,10 +117,19 @@ TEST_CASE("tornado: swings by hand, widest first, and a flipped ranking", "[swee
   REQUIRE(rows.size() == 2);
   CHECK(rows[0].path == "x");
   CHECK(rows[0].swing == Approx(4.0));
-  CHECK_FALSE(rows[0].flips);
   CHECK(rows[1].path == "y");
   CHECK(rows[1].swing == Approx(3.0));
-  CHECK(rows[1].flips);
+  const RankTable ranks = rank_table(points, Metric::profit);
+  REQUIRE(ranks.points.size() == 5);
+  CHECK(ranks.points[0].best == std::vector<int>{1});
+  CHECK(ranks.points[3].input == "y");
+  CHECK(ranks.points[3].value == "lo");
+  CHECK(ranks.points[3].ranks == std::vector<int>{1, 2});
+  CHECK(ranks.points[3].best_changes);
+  // The baseline beats the other by exactly 1 in every replication: a clear change.
+  CHECK(ranks.points[3].change_clear == std::optional<bool>(true));
+  CHECK_FALSE(ranks.points[1].best_changes);
+  CHECK_FALSE(ranks.points[1].change_clear.has_value());
   CHECK(sensitivity_csv(points).rfind("input,value,policy,baseline,profit_difference,", 0) == 0);
 }
 
