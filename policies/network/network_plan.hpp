@@ -33,6 +33,7 @@ struct NetworkPlan {
   Allocation allocation;
   std::vector<double> group_level;     ///< per group
   std::vector<double> group_in_stock;  ///< per group: the in-stock share the plan expects
+  std::vector<GroupCurve> curves;      ///< per group: the curves the allocation chose from
   std::vector<double> level;           ///< per store-item [store * items + item]
   /// With `detail`: per store-item, expectations over its planned days at its level.
   std::vector<double> days;      ///< open days planned
