@@ -26,7 +26,9 @@ double GroupMargins::critical_ratio() const {
   return underage + overage > 0 ? underage / (underage + overage) : 0.0;
 }
 
-double GroupMargins::cv() const { return demand > 0 ? demand_sd / demand : 0.0; }
+double GroupMargins::cv() const {
+  return demand > 0 ? demand_sd / demand : 0.0;
+}
 
 void add_curves(std::vector<GroupCurve>& sum, std::span<const GroupCurve> plan) {
   if (sum.empty()) {

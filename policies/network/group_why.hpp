@@ -33,11 +33,11 @@ struct GroupMargins {
 
 /// What a group's chosen level means, per plan (one plan covers its planned days).
 struct GroupWhy {
-  double level = 0;           ///< the in-stock level chosen
-  double in_stock = 0;        ///< expected share of its store-item-days in stock at close
-  double leftover = 0;        ///< expected units left unsold per plan (waste before recovery)
-  double profit = 0;          ///< expected profit per plan
-  double days = 0;            ///< store-item-days per plan
+  double level = 0;     ///< the in-stock level chosen
+  double in_stock = 0;  ///< expected share of its store-item-days in stock at close
+  double leftover = 0;  ///< expected units left unsold per plan (waste before recovery)
+  double profit = 0;    ///< expected profit per plan
+  double days = 0;      ///< store-item-days per plan
   /// Profit per plan given up to raise this group's in-stock by one point (0.01 x its days) at
   /// the next grid level that raises it: the slope of its curve past the chosen level; NaN at
   /// the top of the grid.

@@ -121,8 +121,7 @@ std::vector<int> attribute_groups(const Things& things, const std::string& key,
   for (std::size_t i = 0; i < things.size(); ++i) {
     const auto& attrs = things[i].attributes;
     const auto found = attrs.find(key);
-    const std::string value =
-        found == attrs.end() ? std::string(kNoAttributeGroup) : found->second;
+    const std::string value = found == attrs.end() ? std::string(kNoAttributeGroup) : found->second;
     const auto [pos, inserted] = index.try_emplace(value, static_cast<int>(names.size()));
     if (inserted) names.push_back(value);
     of[i] = pos->second;
@@ -315,7 +314,6 @@ std::vector<double> expected_sales_value(const Scenario& s) {
   }
   return value;
 }
-
 
 GroupMap make_groups(const Grouping& g, const Scenario& s) {
   if (g.kind != GroupingKind::combined) {

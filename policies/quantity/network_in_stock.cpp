@@ -109,11 +109,11 @@ std::optional<Grouping> read_grouping(Params& p, const Scenario& scenario) {
                  : fmt::format("item '{}' (items[{}])", scenario.items[m->index].id, m->index);
     const Location& where =
         m->store ? scenario.stores[m->index].where : scenario.items[m->index].where;
-    const std::string others =
-        m->count > 1 ? fmt::format(" (and {} more {})", m->count - 1,
-                                   m->store ? (m->count > 2 ? "stores" : "store")
-                                            : (m->count > 2 ? "items" : "item"))
-                     : std::string();
+    const std::string others = m->count > 1
+                                   ? fmt::format(" (and {} more {})", m->count - 1,
+                                                 m->store ? (m->count > 2 ? "stores" : "store")
+                                                          : (m->count > 2 ? "items" : "item"))
+                                   : std::string();
     p.diagnostics().error(
         where.file.empty() ? p.location("groups") : where,
         fmt::format("{} has no attribute '{}'{}, which {} groups by", who, m->key, others,
