@@ -1,5 +1,7 @@
 #include "sim/runner/run_estimate.hpp"
 
+#include <tbb/task_arena.h>
+
 #include <algorithm>
 #include <chrono>
 
@@ -9,6 +11,42 @@
 #include "sim/runner/network_phases.hpp"
 
 namespace larder {
+
+namespace {
+
+/// Seconds of steady clock since `start`.
+double since(std::chrono::steady_clock::time_point start) {
+  return std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+}
+
+}  // namespace
+
+NetworkPlanCost network_plan_cost(const SimSetup& setup) {
+  NetworkPlanCost cost;
+  const std::vector<int> planned = network_policies(setup.policies);
+  if (planned.empty()) return cost;
+  const Scenario& sc = setup.scenario;
+  tbb::task_arena arena(1);
+  // Setting up the stores in step (and whatever a run measures once before its plans).
+  auto start = std::chrono::steady_clock::now();
+  PhasedRuns runs(setup, 0, 1, arena);
+  cost.setup_seconds = since(start);
+  // A week of days first, so learned forecasts have seen some sales.
+  runs.run_until(std::min(sc.horizon.days - 1, kPlanDays));
+  for (int k : planned) {
+    const int every = setup.policies[static_cast<size_t>(k)].quantity->network()->replan_days;
+    // Plans on days 0, every, 2 every, ... before the horizon ends.
+    const int plans = (sc.horizon.days + every - 1) / every;
+    int timed = 0;
+    start = std::chrono::steady_clock::now();
+    do {
+      (void)runs.plan(0, k, false);
+      ++timed;
+    } while (timed < kPilotPlans && since(start) < 0.05);
+    cost.seconds_per_replication += since(start) / timed * plans;
+  }
+  return cost;
+}
 
 RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& policies,
                          int threads) {
@@ -42,6 +80,12 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   const double tasks = static_cast<double>(stores) * scenario.replications;
   const int workers = std::max(1, threads);
   e.seconds = per_store * tasks / std::min<double>(workers, tasks);
+  // Network plans: every replication re-plans every replan_days from every store's forecasts;
+  // the plans of a batch run in parallel across its replications only.
+  const NetworkPlanCost plans = network_plan_cost(setup);
+  e.plan_seconds = plans.setup_seconds + plans.seconds_per_replication * scenario.replications /
+                                             std::min<double>(workers, scenario.replications);
+  e.seconds += e.plan_seconds;
 
   const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
                                    (pilot.bytes_per_item_and_policy() + sizeof(Tally)) +
