@@ -27,7 +27,7 @@ struct GroupCurve {
   double days = 0;               ///< store-item-days in the group (the constraint's weight)
   /// Expected units left unsold (waste before recovery) per level; may be empty: the
   /// allocation does not use it, `larder allocate` shows it (group_why.hpp).
-  std::vector<double> leftover;
+  std::vector<double> leftover = {};
 };
 
 /// The chosen levels and what they achieve.

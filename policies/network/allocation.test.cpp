@@ -481,7 +481,7 @@ TEST_CASE("allocate: a low target is met by the unconstrained optimum", "[alloca
   }
   check_against_brute_force(groups, 0.3);
   // Equal profits at several levels: the lowest of them.
-  GroupCurve flat{{0.2, 0.5, 0.5, 0.9}, {1.0, 1.0, 1.0, 0.5}, 1.0, {}};
+  GroupCurve flat{{0.2, 0.5, 0.5, 0.9}, {1.0, 1.0, 1.0, 0.5}, 1.0};
   CHECK(allocate(std::vector<GroupCurve>{flat}, 0.1).level == std::vector<int>{0});
   // Any lambda > 0 takes the free in-stock gain at equal profit (level 1, not 2: same point).
   const Allocation b = allocate(std::vector<GroupCurve>{flat}, 0.4);
@@ -518,7 +518,7 @@ TEST_CASE("allocate: one level for all never beats per-item levels", "[allocatio
       items.push_back(group_curve({random_item_day(u), random_item_day(u)}, levels));
     }
     GroupCurve pooled{std::vector<double>(levels.size(), 0.0),
-                      std::vector<double>(levels.size(), 0.0), 0.0, {}};
+                      std::vector<double>(levels.size(), 0.0), 0.0};
     for (const GroupCurve& c : items) {
       for (std::size_t l = 0; l < levels.size(); ++l) {
         pooled.in_stock[l] += c.in_stock[l];

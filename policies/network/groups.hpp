@@ -31,8 +31,8 @@ enum class GroupingKind : unsigned char {
 /// A grouping as written in a policy's `groups` parameter.
 struct Grouping {
   GroupingKind kind = GroupingKind::item;
-  std::string attribute;        ///< the key, for attribute and store_attribute
-  std::vector<Grouping> parts;  ///< for combined: 2 or 3 single keys, as written
+  std::string attribute;             ///< the key, for attribute and store_attribute
+  std::vector<Grouping> parts = {};  ///< for combined: 2 or 3 single keys, as written
 };
 
 /// Most keys one combined grouping may join.

@@ -15,14 +15,14 @@ BreakdownDimensions breakdown_dimensions(const Scenario& scenario, const Groupin
   d.names.push_back("store");
   d.maps.push_back(std::move(stores));
   d.names.push_back("item");
-  d.maps.push_back(make_groups({GroupingKind::item, {}, {}}, scenario));
+  d.maps.push_back(make_groups({GroupingKind::item, {}}, scenario));
   std::set<std::string> keys;
   for (const Item& it : scenario.items) {
     for (const auto& [k, v] : it.attributes) keys.insert(k);
   }
   for (const std::string& k : keys) {
     d.names.push_back(k);
-    d.maps.push_back(make_groups({GroupingKind::attribute, k, {}}, scenario));
+    d.maps.push_back(make_groups({GroupingKind::attribute, k}, scenario));
   }
   if (plan != nullptr) {
     d.names.push_back("plan_group");
