@@ -206,8 +206,8 @@ int allocate_command(const AllocateArgs& args) {
   page.network.point_cost_per_day = point.finite_difference * network_day;
   page.note = fmt::format(
       "One more point of network in-stock costs {} {} a day (the best plan at {:.0f}% against "
-      "{:.0f}%); the multiplier says {} {} a day ({:.4g} per expected in-stock "
-      "store-item-day). The plan is within {:.4g} {} of the best possible for its {}{}.",
+      "{:.0f}%);\nthe multiplier says {} {} a day ({:.4g} per expected in-stock "
+      "store-item-day).\nThe plan is within {:.4g} {} of the best possible for its {}{}.",
       cell(point.finite_difference * network_day, 2), sc.currency, 100 * target.target + 1,
       100 * target.target, cell(point.multiplier * network_day, 2), sc.currency,
       plan.allocation.lambda, plan.allocation.gap_bound / std::max(plan.plans, 1), sc.currency,
@@ -227,11 +227,12 @@ int allocate_command(const AllocateArgs& args) {
                                     plan.plans, replications, replications == 1 ? "" : "s",
                                     args.days, args.days == 1 ? "" : "s"),
       sc.seed);
-  fmt::print("{:<24} {:>6} {:>7} {:>6} {:>6} {:>9} {:>10} {:>12} {:>12} {:>11}\n", "group", "level",
-             "items", "ratio", "cv", "in stock", "basis", "leftover/d", "profit/d", "+1 pt/d");
+  fmt::print("{:<24} {:>6} {:>11} {:>6} {:>6} {:>9} {:>10} {:>12} {:>12} {:>11}\n", "group",
+             "level", "store-items", "ratio", "cv", "in stock", "basis", "leftover/d", "profit/d",
+             "+1 pt/d");
   const auto line = [](const AllocationRow& r) {
     fmt::print(
-        "{:<24} {:>5.0f}% {:>7} {:>6} {:>6} {:>8.1f}% {:>10.1f} {:>12.1f} {:>12.2f} {:>11}\n",
+        "{:<24} {:>5.0f}% {:>11} {:>6} {:>6} {:>8.1f}% {:>10.1f} {:>12.1f} {:>12.2f} {:>11}\n",
         r.group, 100 * r.level, r.store_items, cell(r.critical_ratio, 2), cell(r.cv, 2),
         100 * r.in_stock, r.order_basis, r.leftover_per_day, r.profit_per_day,
         cell(r.point_cost_per_day, 2));
