@@ -70,7 +70,8 @@ int check_command(const CommonOptions& args) {
         sc.file, sc.name, format_bytes(floor), format_bytes(default_memory_limit()));
     return 0;
   }
-  const RunEstimate e = estimate_run(sc, prepared.policies, threads);
+  RunEstimate e = estimate_run(sc, prepared.policies, threads);
+  add_network_plan_time(e, sc, prepared.policies, threads);
   const auto& baseline = sc.policies[static_cast<size_t>(sc.baseline)].name;
 
   if (args.format == "json") {

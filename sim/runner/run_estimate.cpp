@@ -1,9 +1,9 @@
 #include "sim/runner/run_estimate.hpp"
 
 #include <tbb/task_arena.h>
+#include <time.h>
 
 #include <algorithm>
-#include <time.h>
 
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/store_run.hpp"
@@ -22,7 +22,9 @@ double thread_seconds() {
   return static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
 }
 
-double since(double start) { return thread_seconds() - start; }
+double since(double start) {
+  return thread_seconds() - start;
+}
 
 }  // namespace
 
@@ -84,12 +86,6 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   const double tasks = static_cast<double>(stores) * scenario.replications;
   const int workers = std::max(1, threads);
   e.seconds = per_store * tasks / std::min<double>(workers, tasks);
-  // Network plans: every replication re-plans every replan_days from every store's forecasts;
-  // the plans of a batch run in parallel across its replications only.
-  const NetworkPlanCost plans = network_plan_cost(setup);
-  e.plan_seconds = plans.setup_seconds + plans.seconds_per_replication * scenario.replications /
-                                             std::min<double>(workers, scenario.replications);
-  e.seconds += e.plan_seconds;
 
   const std::size_t per_task = static_cast<size_t>(items) * policies.size() *
                                    (pilot.bytes_per_item_and_policy() + sizeof(Tally)) +
@@ -118,6 +114,20 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   e.memory_bytes = model + live + results +
                    (std::size_t{8} << 20);  // plus a fixed allowance for the program itself
   return e;
+}
+
+void add_network_plan_time(RunEstimate& e, const Scenario& scenario,
+                           const std::vector<Policy>& policies, int threads) {
+  if (network_policies(policies).empty()) return;
+  const DemandModel demand(scenario);
+  const SimSetup setup{scenario, demand, policies, scenario.seed};
+  // Every replication re-plans every replan_days from every store's forecasts; the plans of a
+  // batch run in parallel across its replications only.
+  const NetworkPlanCost plans = network_plan_cost(setup);
+  const int workers = std::max(1, threads);
+  e.plan_seconds = plans.setup_seconds + plans.seconds_per_replication * scenario.replications /
+                                             std::min<double>(workers, scenario.replications);
+  e.seconds += e.plan_seconds;
 }
 
 }  // namespace larder
