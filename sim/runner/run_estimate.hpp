@@ -2,8 +2,9 @@
 // What a run will cost before it starts: its size, an estimate of its time (timed on a pilot
 // of one store over the first kPilotDays days of the horizon, scaled to the whole, plus, for
 // network-planned policies and on request, the network plans timed on a pilot replication and
-// scaled to every re-plan; pilots are timed in CPU time of their one thread, so a busy machine does not
-// inflate them: the estimate is the wall time on cores that are free) and of its peak memory.
+// scaled to every re-plan; pilots are timed in CPU time of their one thread, so a busy machine
+// does not inflate them: the estimate is the wall time on cores that are free) and of its peak
+// memory.
 
 #include <cstddef>
 #include <cstdint>
