@@ -255,9 +255,10 @@ TEST_CASE("larder allocate averages plans and writes a rollout table", "[cli]") 
   const fs::path csv = scratch("allocation-avg.csv");
   const fs::path rollout = scratch("rollout.csv");
   const std::string scenario = fmt::format("{}/scenarios/grouping.yaml", LARDER_SOURCE_DIR);
-  const Outcome o = larder(fmt::format("allocate {} --policy by-type -r 2 --days 2 --out {} "
-                                       "--rollout {} --quiet",
-                                       scenario, csv.string(), rollout.string()));
+  const Outcome o =
+      larder(fmt::format("allocate {} --policy by-type -r 2 --days 2 --out {} "
+                         "--rollout {} --quiet",
+                         scenario, csv.string(), rollout.string()));
   INFO(o.err);
   REQUIRE(o.code == 0);
   CHECK(o.out.find("the average of 4 plans: 2 replications x 2 days") != std::string::npos);
@@ -274,9 +275,10 @@ TEST_CASE("larder allocate averages plans and writes a rollout table", "[cli]") 
   CHECK(over.code == 2);
   CHECK(over.err.find("--rollout") != std::string::npos);
   // --days past the horizon is bad input.
-  const Outcome far = larder(fmt::format("allocate {} --policy by-type --day 190 --days 10 "
-                                         "--out {}",
-                                         scenario, csv.string()));
+  const Outcome far =
+      larder(fmt::format("allocate {} --policy by-type --day 190 --days 10 "
+                         "--out {}",
+                         scenario, csv.string()));
   CHECK(far.code == 2);
   CHECK(far.err.find("--days 10") != std::string::npos);
 }

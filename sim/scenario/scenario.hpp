@@ -92,7 +92,7 @@ struct Item {
 
 struct Store {
   std::string id;
-  Location where;  ///< the store's mapping in the scenario file (empty when generated)
+  Location where;     ///< the store's mapping in the scenario file (empty when generated)
   double size = 1.0;  ///< multiplies every item's base demand
   WeekdaySet open_weekdays = kAllWeekdays;
   std::map<std::string, std::string> attributes;
