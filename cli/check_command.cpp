@@ -70,7 +70,8 @@ int check_command(const CommonOptions& args) {
         sc.file, sc.name, format_bytes(floor), format_bytes(default_memory_limit()));
     return 0;
   }
-  const RunEstimate e = estimate_run(sc, prepared.policies, threads);
+  RunEstimate e = estimate_run(sc, prepared.policies, threads);
+  add_network_plan_time(e, sc, prepared.policies, threads);
   const auto& baseline = sc.policies[static_cast<size_t>(sc.baseline)].name;
 
   if (args.format == "json") {
@@ -87,6 +88,7 @@ int check_command(const CommonOptions& args) {
     j["scored_store_item_days"] = e.scored_store_item_days;
     j["poisson_fallback_days"] = e.poisson_fallback_days;
     j["estimated_seconds"] = e.seconds;
+    j["estimated_plan_seconds"] = e.plan_seconds;
     j["estimated_memory_bytes"] = e.memory_bytes;
     j["threads"] = threads;
     j["baseline"] = baseline;
@@ -116,8 +118,11 @@ int check_command(const CommonOptions& args) {
   fmt::print("  policies      {} (baseline: {})\n", sc.policies.size(), baseline);
   for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(p));
   if (sc.drill) fmt::print("{}", drill_text(sc, *sc.drill));
-  fmt::print("  estimate      about {} on {} thread{}, about {} of memory\n",
+  fmt::print("  estimate      about {} on {} thread{}{}, about {} of memory\n",
              format_duration(e.seconds), threads, threads == 1 ? "" : "s",
+             e.plan_seconds > 0
+                 ? fmt::format(" (network plans about {})", format_duration(e.plan_seconds))
+                 : std::string(),
              format_bytes(e.memory_bytes));
   const std::size_t limit = default_memory_limit();
   fmt::print("  memory limit  {} (larder run's default --max-memory){}\n", format_bytes(limit),

@@ -62,6 +62,8 @@ struct AllocateArgs {
   std::string policy;      ///< a network_in_stock policy of the scenario
   std::optional<int> day;  ///< plan on this day [the end of the warm-up]
   std::string out;         ///< CSV file [larder-out/<scenario>/allocation-<policy>.csv]
+  int days = 1;            ///< plan on this many days from `day` and average [1]
+  std::string rollout;     ///< rollout table CSV ("" = none)
 };
 int allocate_command(const AllocateArgs& args);
 

@@ -88,6 +88,8 @@ int main(int argc, char** argv) {
       "                                   as many replications as that precision needs\n"
       "  larder allocate my.yaml --policy per-item-levels\n"
       "                                   levels a network_in_stock policy would roll out\n"
+      "  larder allocate my.yaml --policy by-type -r 10 --days 7 --rollout rollout.csv\n"
+      "                                   the same from 70 plans, with why, as a rollout table\n"
       "  larder history my.yaml --policy per-item --out history.csv\n"
       "                                   what the stores would have recorded\n"
       "  larder fit history.csv --items items.csv --out fitted.yaml\n"
@@ -186,7 +188,19 @@ int main(int argc, char** argv) {
       "--day", allocate.day,
       "plan on this day, after simulating the days before it [end of warm-up]");
   allocate_cmd->add_option("-o,--out", allocate.out,
-                           "CSV file [larder-out/<scenario name>/allocation-<policy>.csv]");
+                           "CSV file [larder-out/<scenario name>/allocation-<policy>.csv]: per "
+                           "group (with why: critical ratio, demand cv, leftover, profit, cost "
+                           "of one more point of in-stock), per store-item and the network");
+  allocate_cmd
+      ->add_option("--days", allocate.days,
+                   "plan on this many days from --day and allocate once on the sum; "
+                   "with -r N, N replications x this many days of plans [1]")
+      ->check(CLI::Range(1, 3650));
+  allocate_cmd->add_option("--rollout", allocate.rollout,
+                           "also write the rollout table: per store-item its group, grouping "
+                           "keys, item and store attributes, level and order basis per weekday");
+  allocate_cmd->footer(
+      "-r N plans from N replications (default 1 here, not the scenario's replications).");
 
   larder::HistoryArgs history;
   auto* history_cmd = app.add_subcommand(

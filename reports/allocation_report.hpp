@@ -18,6 +18,9 @@ struct AllocationRow {
   double order_basis = 0;       ///< expected order quantity per open day, units
   double leftover_per_day = 0;  ///< expected leftover units per day of a store-item
   double profit_per_day = 0;
+  double critical_ratio = 0;      ///< of the group's margins (group_why.hpp); NaN: not shown
+  double cv = 0;                  ///< of the group's demand; NaN: not shown
+  double point_cost_per_day = 0;  ///< profit a day given up for one more point of in-stock
 };
 
 struct AllocationPage {
@@ -25,7 +28,9 @@ struct AllocationPage {
   std::string policy;
   std::string grouping;  ///< how the stores and items are grouped
   std::string currency;
-  int day = 0;  ///< the day planned on
+  int day = 0;           ///< the (first) day planned on
+  int days = 1;          ///< days planned on, from `day`
+  int replications = 1;  ///< replications planned from
   std::uint64_t seed = 0;
   std::vector<AllocationRow> groups;
   AllocationRow network;  ///< its level is the target

@@ -162,14 +162,21 @@ TEST_CASE("allocation html: the plan groups table and level bars", "[html]") {
   page.groups = {{"A <fast>", 0.9, 12, 0.912, 23.46, 1.25, 1234.567},
                  {"C & slow", 0.55, 4, 0.5, 2.0, 0.75, 12.0}};
   page.network = {"network", 0.8, 16, 0.81, 18.1, 2.0, 1246.567};
+  page.groups[0].critical_ratio = 0.74;
+  page.groups[0].cv = 0.4;
+  page.groups[0].point_cost_per_day = 1.861;
   page.note = "multiplier 3.2 per expected in-stock store-item-day";
   const std::string html = allocation_html(page);
   CHECK(test::markup_problems(html, "html", "html").empty());
+  // The why columns (issue 24): critical ratio and demand cv after the store-items, the cost of
+  // one more point of in-stock last; the network row shows no ratio or cv.
   CHECK(html.find("<th scope=\"row\">A &lt;fast&gt;</th><td class=\"num\">90</td><td "
-                  "class=\"num\">12</td><td class=\"num\">91.2</td><td class=\"num\">23.5</td>"
-                  "<td class=\"num\">1.2</td><td class=\"num\">1,234.57</td>") !=
-        std::string::npos);
-  CHECK(html.find("<th scope=\"row\">network (target)</th><td class=\"num\">80</td>") !=
+                  "class=\"num\">12</td><td class=\"num\">0.74</td><td class=\"num\">0.40</td>"
+                  "<td class=\"num\">91.2</td><td class=\"num\">23.5</td>"
+                  "<td class=\"num\">1.2</td><td class=\"num\">1,234.57</td>"
+                  "<td class=\"num\">1.86</td>") != std::string::npos);
+  CHECK(html.find("<th scope=\"row\">network (target)</th><td class=\"num\">80</td><td "
+                  "class=\"num\">16</td><td class=\"num\">-</td><td class=\"num\">-</td>") !=
         std::string::npos);
   CHECK(html.find("C &amp; slow") != std::string::npos);
   CHECK(html.find("55%") != std::string::npos);

@@ -237,8 +237,12 @@ TEST_CASE("larder allocate prints and writes a network plan", "[cli]") {
   REQUIRE(rows.size() == 1 + 3 + 8 * 12 + 1);  // header, A/B/C, 8 stores x 12 items, network
   CHECK(rows[0] ==
         "scope,group,store,item,level,order_basis,open_days,expected_in_stock,"
-        "expected_leftover_units,expected_profit");
+        "expected_leftover_units,expected_profit,critical_ratio,demand_cv,planned_in_stock,"
+        "leftover_per_day,profit_per_day,point_cost_per_day");
   CHECK(rows[1].rfind("group,A,,,", 0) == 0);
+  // The why columns are filled on group rows only.
+  CHECK(rows[1].back() != ',');
+  CHECK(rows[4].substr(rows[4].size() - 6) == ",,,,,,");
   CHECK(rows.back().rfind("network,,,,0.7,", 0) == 0);
   // A policy that is not network_in_stock is bad input, with the names that would do.
   const Outcome bad = larder(fmt::format("allocate {} --policy flat-70", scenario));
@@ -277,6 +281,38 @@ TEST_CASE("larder sweep --vary ranks the policies on profit and the chosen waste
       fmt::format("sweep {} --vary price=-10% --waste-metric wast_units", scenario.string()));
   CHECK(misspelt.code == 2);
   CHECK(misspelt.err.find("did you mean waste_units?") != std::string::npos);
+}
+
+TEST_CASE("larder allocate averages plans and writes a rollout table", "[cli]") {
+  const fs::path csv = scratch("allocation-avg.csv");
+  const fs::path rollout = scratch("rollout.csv");
+  const std::string scenario = fmt::format("{}/scenarios/grouping.yaml", LARDER_SOURCE_DIR);
+  const Outcome o =
+      larder(fmt::format("allocate {} --policy by-type -r 2 --days 2 --out {} "
+                         "--rollout {} --quiet",
+                         scenario, csv.string(), rollout.string()));
+  INFO(o.err);
+  REQUIRE(o.code == 0);
+  CHECK(o.out.find("the average of 4 plans: 2 replications x 2 days") != std::string::npos);
+  CHECK(o.out.find("One more point of network in-stock costs") != std::string::npos);
+  const auto rows = lines(slurp(rollout));
+  REQUIRE(rows.size() == 1 + 8 * 12);
+  CHECK(rows[0] ==
+        "store,item,group,attribute:type,attribute:sourcing,level,expected_in_stock,order_mon,"
+        "order_tue,order_wed,order_thu,order_fri,order_sat,order_sun");
+  CHECK(rows[1].find(",bread,bread,make,") != std::string::npos);  // baguette
+  // The rollout goes through the output checks: never over the scenario itself.
+  const Outcome over = larder(fmt::format("allocate {} --policy by-type --out {} --rollout {}",
+                                          scenario, csv.string(), scenario));
+  CHECK(over.code == 2);
+  CHECK(over.err.find("--rollout") != std::string::npos);
+  // --days past the horizon is bad input.
+  const Outcome far =
+      larder(fmt::format("allocate {} --policy by-type --day 190 --days 10 "
+                         "--out {}",
+                         scenario, csv.string()));
+  CHECK(far.code == 2);
+  CHECK(far.err.find("--days 10") != std::string::npos);
 }
 
 TEST_CASE("bad input exits 2 with file:line:col messages", "[cli]") {

@@ -25,6 +25,9 @@ struct GroupCurve {
   std::vector<double> in_stock;  ///< expected store-item-days in stock at close
   std::vector<double> profit;    ///< expected profit
   double days = 0;               ///< store-item-days in the group (the constraint's weight)
+  /// Expected units left unsold (waste before recovery) per level; may be empty: the
+  /// allocation does not use it, `larder allocate` shows it (group_why.hpp).
+  std::vector<double> leftover = {};
 };
 
 /// The chosen levels and what they achieve.

@@ -31,10 +31,43 @@ TEST_CASE("parse_grouping accepts the five forms and round-trips with to_string"
 }
 
 TEST_CASE("parse_grouping rejects malformed forms", "[groups]") {
-  for (const char* text : {"attribute:", "attribute", "abcd", "", "Item", "all ", "store-item"}) {
+  for (const char* text :
+       {"attribute:", "attribute", "abcd", "", "Item", "all ", "store-item",
+        "store_attribute:", "store_attribute", "item +", "item + ", "item+abc", "item + item",
+        "all + abc", "store_item + abc", "item + abc + attribute:a + store_attribute:b"}) {
     CAPTURE(text);
     CHECK_FALSE(parse_grouping(text).has_value());
   }
+}
+
+TEST_CASE("parse_grouping: store attributes and combined keys round-trip", "[groups]") {
+  for (const char* text :
+       {"store_attribute:format", "attribute:type + store_attribute:format",
+        "item + store_attribute:format", "abc + attribute:sourcing + store_attribute:region"}) {
+    const auto g = parse_grouping(text);
+    REQUIRE(g.has_value());
+    CHECK(to_string(*g) == text);
+  }
+  const auto store = parse_grouping("store_attribute:format");
+  CHECK(store->kind == GroupingKind::store_attribute);
+  CHECK(store->attribute == "format");
+  // The YAML list form: the same grouping as the " + " text.
+  const std::vector<std::string> keys = {"attribute:type", "store_attribute:format"};
+  const auto list = parse_grouping(std::span<const std::string>(keys));
+  REQUIRE(list.has_value());
+  CHECK(list->kind == GroupingKind::combined);
+  REQUIRE(list->parts.size() == 2);
+  CHECK(list->parts[0].kind == GroupingKind::attribute);
+  CHECK(list->parts[1].kind == GroupingKind::store_attribute);
+  CHECK(to_string(*list) == "attribute:type + store_attribute:format");
+  // A list of one key is that key; of none, of four, or with a repeat, nothing.
+  const std::vector<std::string> one = {"abc"};
+  CHECK(parse_grouping(std::span<const std::string>(one))->kind == GroupingKind::abc);
+  CHECK_FALSE(parse_grouping(std::span<const std::string>()).has_value());
+  const std::vector<std::string> four = {"item", "abc", "attribute:a", "store_attribute:b"};
+  CHECK_FALSE(parse_grouping(std::span<const std::string>(four)).has_value());
+  const std::vector<std::string> twice = {"attribute:a", "attribute:a"};
+  CHECK_FALSE(parse_grouping(std::span<const std::string>(twice)).has_value());
 }
 
 TEST_CASE("abc_classes: 10 items split 2 A, 3 B, 5 C in value order", "[groups]") {
@@ -163,6 +196,98 @@ TEST_CASE("make_groups for every kind", "[groups]") {
     CHECK(m.names == std::vector<std::string>{"A", "B", "C"});
     CHECK(m.of_store_item == std::vector<int>{2, 1, 0, 2, 2, 1, 0, 2});
   }
+}
+
+// Three stores with a format (and one region missing), four items with a type.
+constexpr const char* kStoreAttributes = R"(format: 1
+name: t
+seed: 1
+stores:
+  - { id: n, attributes: { format: big, region: north } }
+  - { id: s, attributes: { format: small } }
+  - { id: e, attributes: { format: big, region: east } }
+items:
+  - { id: a, price: 2, unit_cost: 1, attributes: { type: bread }, demand: { base: 10 } }
+  - { id: b, price: 3, unit_cost: 1, attributes: { type: cake }, demand: { base: 10 } }
+  - { id: c, price: 1, unit_cost: 0.5, attributes: { type: bread }, demand: { base: 100 } }
+policies:
+  - { name: a, forecast: { method: oracle }, quantity: { rule: fixed, quantity: 1 } }
+)";
+
+TEST_CASE("make_groups: store attributes and combined keys, by hand", "[groups]") {
+  const Scenario s = test::scenario_from(kStoreAttributes);
+  // Store-items in store-major order: n/a n/b n/c s/a s/b s/c e/a e/b e/c.
+  SECTION("store_attribute: every item of a store in the store's group") {
+    const GroupMap m = groups_of("store_attribute:format", s);
+    CHECK(m.names == std::vector<std::string>{"big", "small"});
+    CHECK(m.of_store_item == std::vector<int>{0, 0, 0, 1, 1, 1, 0, 0, 0});
+  }
+  SECTION("store_attribute: (none) for a store without the key") {
+    const GroupMap m = groups_of("store_attribute:region", s);
+    CHECK(m.names == std::vector<std::string>{"north", "(none)", "east"});
+    CHECK(m.of_store_item == std::vector<int>{0, 0, 0, 1, 1, 1, 2, 2, 2});
+  }
+  SECTION("type x format: one group per (item group, store group) pair that occurs") {
+    const GroupMap m = groups_of("attribute:type + store_attribute:format", s);
+    CHECK(m.names ==
+          std::vector<std::string>{"bread / big", "cake / big", "bread / small", "cake / small"});
+    CHECK(m.of_store_item == std::vector<int>{0, 1, 0, 2, 3, 2, 0, 1, 0});
+    REQUIRE(m.key_names.size() == 4);
+    CHECK(m.key_names[2] == std::vector<std::string>{"bread", "small"});
+  }
+  SECTION("item x format: per item within each store format") {
+    const GroupMap m = groups_of("item + store_attribute:format", s);
+    CHECK(m.names == std::vector<std::string>{"a / big", "b / big", "c / big", "a / small",
+                                              "b / small", "c / small"});
+    CHECK(m.of_store_item == std::vector<int>{0, 1, 2, 3, 4, 5, 0, 1, 2});
+  }
+  SECTION("three keys: abc x type x format") {
+    // Sales values a 20, b 30, c 100 per store: c A, b B, a C (3 items: 1 A, 1 B, 1 C).
+    const GroupMap m = groups_of("abc + attribute:type + store_attribute:format", s);
+    CHECK(m.names == std::vector<std::string>{"C / bread / big", "B / cake / big",
+                                              "A / bread / big", "C / bread / small",
+                                              "B / cake / small", "A / bread / small"});
+    CHECK(m.of_store_item == std::vector<int>{0, 1, 2, 3, 4, 5, 0, 1, 2});
+  }
+  SECTION("a single key carries its own name as its one key name") {
+    const GroupMap m = groups_of("attribute:type", s);
+    CHECK(m.key_names == std::vector<std::vector<std::string>>{{"bread"}, {"cake"}});
+  }
+}
+
+TEST_CASE("grouping_suggestion: the closest valid key within edit distance 2", "[groups]") {
+  const Scenario s = test::scenario_from(kStoreAttributes);
+  CHECK(grouping_suggestion("items", s) == "did you mean 'item'?");
+  CHECK(grouping_suggestion("attribute:tpye", s) == "did you mean 'attribute:type'?");
+  CHECK(grouping_suggestion("store_attribute:fromat", s) ==
+        "did you mean 'store_attribute:format'?");
+  CHECK(grouping_suggestion("attribute:type + store_atribute:format", s) ==
+        "did you mean 'store_attribute:format'?");
+  CHECK(grouping_suggestion("attribute:format", s) ==
+        "'format' is a store attribute: did you mean 'store_attribute:format'?");
+  CHECK(grouping_suggestion("store_attribute:type", s) ==
+        "'type' is an item attribute: did you mean 'attribute:type'?");
+  CHECK(grouping_suggestion("attribute:type", s).empty());
+  CHECK(grouping_suggestion("something-else-entirely", s).empty());
+}
+
+TEST_CASE("first_missing_attribute names the first item or store without the key", "[groups]") {
+  const Scenario s = test::scenario_from(kStoreAttributes);
+  CHECK_FALSE(first_missing_attribute(*parse_grouping("attribute:type"), s).has_value());
+  CHECK_FALSE(first_missing_attribute(*parse_grouping("abc"), s).has_value());
+  const auto m =
+      first_missing_attribute(*parse_grouping("attribute:type + store_attribute:region"), s);
+  REQUIRE(m.has_value());
+  CHECK(m->store);
+  CHECK(m->index == 1);
+  CHECK(m->key == "region");
+  CHECK(m->count == 1);
+  const Scenario four = test::scenario_from(kFourItems);
+  const auto t = first_missing_attribute(*parse_grouping("attribute:sourcing"), four);
+  REQUIRE(t.has_value());
+  CHECK_FALSE(t->store);
+  CHECK(t->index == 0);
+  CHECK(t->count == 2);  // a and d
 }
 
 TEST_CASE("make_groups abc numbers only the classes that occur", "[groups]") {

@@ -69,6 +69,7 @@ NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
   for (auto& c : curves) {
     c.in_stock.assign(n_levels, 0.0);
     c.profit.assign(n_levels, 0.0);
+    c.leftover.assign(n_levels, 0.0);
   }
   // Sums in a fixed order (store, day, item), so a plan never depends on threads.
   std::vector<LevelPoint> points(n_levels);
@@ -82,6 +83,7 @@ NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
         for (size_t l = 0; l < n_levels; ++l) {
           c.in_stock[l] += points[l].in_stock;
           c.profit[l] += points[l].profit;
+          c.leftover[l] += points[l].leftover;
         }
         c.days += 1.0;
       }
@@ -98,6 +100,7 @@ NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
   }
   const std::vector<GroupCurve>& expected = raw.empty() ? curves : raw;
   plan.allocation = improve(curves, allocate(curves, target.target));
+  plan.curves = curves;
   for (size_t g = 0; g < curves.size(); ++g) {
     const auto l = static_cast<size_t>(plan.allocation.level[g]);
     const double days = curves[g].days;

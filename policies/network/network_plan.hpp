@@ -47,7 +47,8 @@ struct NetworkPlan {
   std::vector<double> group_in_stock;  ///< per group: the in-stock share the plan expects
   /// per group: the same before the calibration (what the calibration is fitted against)
   std::vector<double> group_raw_in_stock;
-  std::vector<double> level;  ///< per store-item [store * items + item]
+  std::vector<GroupCurve> curves;  ///< per group: the curves the allocation chose from
+  std::vector<double> level;       ///< per store-item [store * items + item]
   /// With `detail`: per store-item, expectations over its planned days at its level.
   std::vector<double> days;      ///< open days planned
   std::vector<double> quantity;  ///< mean order basis Q(L) over those days

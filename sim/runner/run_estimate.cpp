@@ -1,7 +1,9 @@
 #include "sim/runner/run_estimate.hpp"
 
+#include <tbb/task_arena.h>
+#include <time.h>
+
 #include <algorithm>
-#include <chrono>
 
 #include "sim/engine/demand_model.hpp"
 #include "sim/engine/store_run.hpp"
@@ -9,6 +11,49 @@
 #include "sim/runner/network_phases.hpp"
 
 namespace larder {
+
+namespace {
+
+/// CPU seconds of the calling thread: the pilots run on it alone, and CPU time does not grow
+/// when other programs share the cores (a busy machine would inflate wall time).
+double thread_seconds() {
+  timespec t{};
+  clock_gettime(CLOCK_THREAD_CPUTIME_ID, &t);
+  return static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
+}
+
+double since(double start) {
+  return thread_seconds() - start;
+}
+
+}  // namespace
+
+NetworkPlanCost network_plan_cost(const SimSetup& setup) {
+  NetworkPlanCost cost;
+  const std::vector<int> planned = network_policies(setup.policies);
+  if (planned.empty()) return cost;
+  const Scenario& sc = setup.scenario;
+  tbb::task_arena arena(1);
+  // Setting up the stores in step (and whatever a run measures once before its plans).
+  double start = thread_seconds();
+  PhasedRuns runs(setup, 0, 1, arena);
+  cost.setup_seconds = since(start);
+  // A week of days first, so learned forecasts have seen some sales.
+  runs.run_until(std::min(sc.horizon.days - 1, kPlanDays));
+  for (int k : planned) {
+    const int every = setup.policies[static_cast<size_t>(k)].quantity->network()->replan_days;
+    // Plans on days 0, every, 2 every, ... before the horizon ends.
+    const int plans = (sc.horizon.days + every - 1) / every;
+    int timed = 0;
+    start = thread_seconds();
+    do {
+      (void)runs.plan(0, k, false);
+      ++timed;
+    } while (timed < kPilotPlans && since(start) < 0.05);
+    cost.seconds_per_replication += since(start) / timed * plans;
+  }
+  return cost;
+}
 
 RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& policies,
                          int threads) {
@@ -33,12 +78,11 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   // 100,000-day horizon is timed on two years and scaled, so `check` stays quick).
   const SimSetup setup{scenario, demand, policies, scenario.seed};
   const int sampled = std::min(scenario.horizon.days, kPilotDays);
-  const auto start = std::chrono::steady_clock::now();
+  const double start = thread_seconds();
   StoreRun pilot(setup, 0, 0);
   pilot.run_days(0, sampled);
-  const double per_store =
-      std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count() *
-      static_cast<double>(scenario.horizon.days) / static_cast<double>(std::max(sampled, 1));
+  const double per_store = since(start) * static_cast<double>(scenario.horizon.days) /
+                           static_cast<double>(std::max(sampled, 1));
   const double tasks = static_cast<double>(stores) * scenario.replications;
   const int workers = std::max(1, threads);
   e.seconds = per_store * tasks / std::min<double>(workers, tasks);
@@ -70,6 +114,20 @@ RunEstimate estimate_run(const Scenario& scenario, const std::vector<Policy>& po
   e.memory_bytes = model + live + results +
                    (std::size_t{8} << 20);  // plus a fixed allowance for the program itself
   return e;
+}
+
+void add_network_plan_time(RunEstimate& e, const Scenario& scenario,
+                           const std::vector<Policy>& policies, int threads) {
+  if (network_policies(policies).empty()) return;
+  const DemandModel demand(scenario);
+  const SimSetup setup{scenario, demand, policies, scenario.seed};
+  // Every replication re-plans every replan_days from every store's forecasts; the plans of a
+  // batch run in parallel across its replications only.
+  const NetworkPlanCost plans = network_plan_cost(setup);
+  const int workers = std::max(1, threads);
+  e.plan_seconds = plans.setup_seconds + plans.seconds_per_replication * scenario.replications /
+                                             std::min<double>(workers, scenario.replications);
+  e.seconds += e.plan_seconds;
 }
 
 }  // namespace larder

@@ -886,6 +886,7 @@ class ScenarioReader {
       }
       Params sp(node, path, file_, diag_);
       Store store;
+      store.where = sp.location();
       store.open_weekdays = scenario_.calendar.open_weekdays;
       if (const auto id = read_id(sp, "id")) {
         claim_id(ids, *id, path, sp, "id");
@@ -992,6 +993,7 @@ class ScenarioReader {
       ip.finish();
       Item item = build_item(draft, defaults, ip);
       item.id = id.value_or("");
+      item.where = ip.location();
       const Field<Leftovers>& leftovers = pick(draft.leftovers, defaults.leftovers);
       const bool keeps_a_day = leftovers.value == Leftovers::discount_next_day ||
                                (leftovers.given && !leftovers.value);  // unknown: do not guess

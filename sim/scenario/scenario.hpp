@@ -71,6 +71,7 @@ struct Markdown {
 
 struct Item {
   std::string id;
+  Location where;  ///< the item's mapping in the scenario file (empty for items made in code)
   std::map<std::string, std::string> attributes;
   double price = 0.0;
   double unit_cost = 0.0;
@@ -91,6 +92,7 @@ struct Item {
 
 struct Store {
   std::string id;
+  Location where;     ///< the store's mapping in the scenario file (empty when generated)
   double size = 1.0;  ///< multiplies every item's base demand
   WeekdaySet open_weekdays = kAllWeekdays;
   std::map<std::string, std::string> attributes;
