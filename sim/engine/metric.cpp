@@ -34,6 +34,7 @@ constexpr std::array<MetricInfo, kMetricCount> kInfo = {{
      "units that did not sell at full price before their last day's close: wasted + donated + "
      "salvaged + sold at a discount",
      -1},
+    {"surplus_share", "share", "surplus_units / delivered_units", -1},
     {"surplus_kg", "kg", "surplus units x weight", -1},
     {"surplus_co2e_kg", "kg", "surplus units x CO2e per unit", -1},
     {"donated_kg", "kg", "donated units x weight", 0},

@@ -35,6 +35,7 @@ enum class Metric : std::size_t {
   waste_kg,
   co2e_kg,
   surplus_units,
+  surplus_share,
   surplus_kg,
   surplus_co2e_kg,
   donated_kg,

@@ -67,8 +67,10 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
   at(v, Metric::waste_units) = static_cast<double>(t.wasted);
   at(v, Metric::salvaged_units) = static_cast<double>(t.salvaged);
   at(v, Metric::donated_units) = static_cast<double>(t.donated);
-  at(v, Metric::surplus_units) =
-      static_cast<double>(t.wasted + t.donated + t.salvaged + t.sold_next_day + t.sold_markdown);
+  const std::int64_t surplus =
+      t.wasted + t.donated + t.salvaged + t.sold_next_day + t.sold_markdown;
+  at(v, Metric::surplus_units) = static_cast<double>(surplus);
+  at(v, Metric::surplus_share) = ratio(surplus, t.delivered, 0.0);
   at(v, Metric::delivered_units) = static_cast<double>(t.delivered);
   at(v, Metric::waste_share) = ratio(t.wasted, t.delivered, 0.0);
   at(v, Metric::in_stock_at_close) = ratio(t.in_stock_days, t.open_days, 0.0);

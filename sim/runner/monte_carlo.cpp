@@ -50,7 +50,7 @@ std::vector<Metric> applicable_metrics(const Scenario& scenario) {
     if (m == Metric::full_price_revenue && !discount && !salvage) continue;
     if (m == Metric::waste_kg && !weight) continue;
     if (m == Metric::co2e_kg && !co2e) continue;
-    if (m == Metric::surplus_units && !surplus) continue;
+    if ((m == Metric::surplus_units || m == Metric::surplus_share) && !surplus) continue;
     if (m == Metric::surplus_kg && !(surplus && weight)) continue;
     if (m == Metric::surplus_co2e_kg && !(surplus && co2e)) continue;
     if (m == Metric::donated_kg && !(donate && weight)) continue;
