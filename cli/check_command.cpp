@@ -14,14 +14,14 @@
 namespace larder {
 
 namespace {
-/// How an item's leftovers are handled, in a few words: "donate", "discount_next_day at 1.2",
-/// "discard + markdown from 18 (surplus only)".
+/// How an item's leftovers are handled, in a few words: "donate", "discount_next_day then
+/// donate", "discard + markdown from 18 (surplus only)".
 std::string handling_text(const Item& it) {
   std::string s = to_string(it.leftovers);
-  if (it.next_day) s += fmt::format(" at {:g}", it.next_day->price);
-  if (it.leftovers == Leftovers::salvage) s += fmt::format(" at {:g}", it.salvage_value);
+  if (it.next_day && it.next_day->fallback != Leftovers::discard)
+    s += fmt::format(" then {}", to_string(it.next_day->fallback));
   if (it.markdown) {
-    s += fmt::format(" + markdown from {} at {:g}{}", it.markdown->from_hour, it.markdown->price,
+    s += fmt::format(" + markdown from {}{}", it.markdown->from_hour,
                      it.markdown->surplus_only ? " (surplus only)" : "");
   }
   return s;
@@ -31,7 +31,8 @@ std::string policy_text(const Scenario& sc, const PolicySpec& p) {
   std::string s = fmt::format("forecast {}, censoring {}, quantity {}", p.forecast.method,
                               p.censoring.method, p.quantity.method);
   for (const auto& a : p.adjustments) s += fmt::format(", {}", a.method);
-  // `leftovers:` on the policy: the handlings that differ from the items' own, with counts.
+  // `leftovers:` on the policy: the handlings that differ from the items' own (prices and
+  // values aside), with counts.
   std::vector<std::pair<std::string, int>> changed;
   for (size_t i = 0; i < p.items.size() && i < sc.items.size(); ++i) {
     const std::string own = handling_text(p.items[i]);

@@ -246,12 +246,13 @@ TEST_CASE("donation never lowers the surplus", "[engine][waste_rules]") {
 
 TEST_CASE("the surplus-only markdown keeps full-price sales and still cuts waste",
           "[engine][tiers][waste_rules]") {
-  // One-day items ordered for a unit left at close on 90% of days, a flat profile and a
-  // markdown from 17:00 (a quarter of the day's customers still to come): most units on the
-  // shelf at 17:00 would sell at full price. Marking every one of them down sells them to the
-  // 40% of customers who take a discounted unit at half price; marking down only the expected
-  // surplus keeps those sales at full price, and bargain-only customers (uplift 0.5) still buy
-  // part of the surplus, which neither policy would sell without the markdown.
+  // One-day items ordered for a unit left at close on 70% of days, a flat profile and a
+  // markdown from 14:00 (half of the day's customers still to come): most units on the shelf
+  // at 14:00 would sell at full price. Marking every one of them down sells them at half price
+  // to the 40% of customers who take a discounted unit, and lets bargain-only customers
+  // (uplift 0.5) take units that regular customers would have bought at full price later;
+  // marking down only the expected surplus keeps those sales, and the bargain-only customers
+  // still buy part of the surplus, which no policy sells without a markdown.
   const std::string text = R"(
 format: 1
 name: surplus-markdown
@@ -267,15 +268,15 @@ items:
   - { id: wrap, price: 4, unit_cost: 1.2, demand: { base: 30 } }
   - { id: salad, price: 5, unit_cost: 1.5, demand: { base: 18 } }
 policies:
-  - { name: none, forecast: { method: ses_weekday }, quantity: { rule: in_stock_target, level: 0.9 } }
+  - { name: none, forecast: { method: ses_weekday }, quantity: { rule: in_stock_target, level: 0.7 } }
   - name: all
     forecast: { method: ses_weekday }
-    quantity: { rule: in_stock_target, level: 0.9 }
-    leftovers: { markdown: { from_hour: 17, uplift: 0.5 } }
+    quantity: { rule: in_stock_target, level: 0.7 }
+    leftovers: { markdown: { from_hour: 14, uplift: 0.5 } }
   - name: surplus
     forecast: { method: ses_weekday }
-    quantity: { rule: in_stock_target, level: 0.9 }
-    leftovers: { markdown: { from_hour: 17, uplift: 0.5, surplus_only: true } }
+    quantity: { rule: in_stock_target, level: 0.7 }
+    leftovers: { markdown: { from_hour: 14, uplift: 0.5, surplus_only: true } }
 )";
   const RunResult r = test::run_scenario(test::scenario_from(text));
   const auto paired = [&](int a, int b, Metric m) {
@@ -357,12 +358,12 @@ TEST_CASE("policy leftovers: errors with file, line and column",
                            "{ rule: critical_fractile }\n    leftovers: " +
                            leftovers + "\n");
   };
-  // Line 30 of the text: `    leftovers: ...` (line 1 is the empty line after R"(; counted by
+  // Line 27 of the text: `    leftovers: ...` (line 1 is the empty line after R"(; counted by
   // hand), the value at column 16.
   CHECK_THAT(first_problem(with("compost")),
-             Catch::Contains("rules.yaml:30:16") && Catch::Contains("compost"));
+             Catch::Contains("rules.yaml:27:16") && Catch::Contains("compost"));
   CHECK_THAT(first_problem(with("{ rule: donate, items: [wrap, bap] }")),
-             Catch::Contains("rules.yaml:30:") && Catch::Contains("'bap' is not an item id") &&
+             Catch::Contains("rules.yaml:27:") && Catch::Contains("'bap' is not an item id") &&
                  Catch::Contains("did you mean 'bun'"));
   CHECK_THAT(first_problem(with("{ rule: donate, where: { category: fish } }")),
              Catch::Contains("no item has category: fish"));
