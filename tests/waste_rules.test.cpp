@@ -362,8 +362,8 @@ TEST_CASE("policy leftovers: errors with file, line and column",
   // hand), the value at column 16.
   CHECK_THAT(first_problem(with("compost")),
              Catch::Contains("rules.yaml:27:16") && Catch::Contains("compost"));
-  CHECK_THAT(first_problem(with("{ rule: donate, items: [wrap, bap] }")),
-             Catch::Contains("rules.yaml:27:") && Catch::Contains("'bap' is not an item id") &&
+  CHECK_THAT(first_problem(with("{ rule: donate, items: [wrap, bunn] }")),
+             Catch::Contains("rules.yaml:27:") && Catch::Contains("'bunn' is not an item id") &&
                  Catch::Contains("did you mean 'bun'"));
   CHECK_THAT(first_problem(with("{ rule: donate, where: { category: fish } }")),
              Catch::Contains("no item has category: fish"));
