@@ -14,8 +14,11 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <string>
+#include <vector>
 
 #include "reports/sweep_csv.hpp"
 #include "tests/fixture.hpp"
