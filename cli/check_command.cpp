@@ -1,5 +1,6 @@
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <nlohmann/json.hpp>
 #include <thread>
 
@@ -13,10 +14,36 @@
 namespace larder {
 
 namespace {
-std::string policy_text(const PolicySpec& p) {
+/// How an item's leftovers are handled, in a few words: "donate", "discount_next_day then
+/// donate", "discard + markdown from 18 (surplus only)".
+std::string handling_text(const Item& it) {
+  std::string s = to_string(it.leftovers);
+  if (it.next_day && it.next_day->fallback != Leftovers::discard)
+    s += fmt::format(" then {}", to_string(it.next_day->fallback));
+  if (it.markdown) {
+    s += fmt::format(" + markdown from {}{}", it.markdown->from_hour,
+                     it.markdown->surplus_only ? " (surplus only)" : "");
+  }
+  return s;
+}
+
+std::string policy_text(const Scenario& sc, const PolicySpec& p) {
   std::string s = fmt::format("forecast {}, censoring {}, quantity {}", p.forecast.method,
                               p.censoring.method, p.quantity.method);
   for (const auto& a : p.adjustments) s += fmt::format(", {}", a.method);
+  // `leftovers:` on the policy: the handlings that differ from the items' own (prices and
+  // values aside), with counts.
+  std::vector<std::pair<std::string, int>> changed;
+  for (size_t i = 0; i < p.items.size() && i < sc.items.size(); ++i) {
+    const std::string own = handling_text(p.items[i]);
+    if (own == handling_text(sc.items[i])) continue;
+    auto at =
+        std::find_if(changed.begin(), changed.end(), [&](const auto& c) { return c.first == own; });
+    if (at == changed.end()) at = changed.insert(changed.end(), {own, 0});
+    ++at->second;
+  }
+  for (const auto& [text, n] : changed)
+    s += fmt::format("; leftovers {} for {} item{}", text, n, n == 1 ? "" : "s");
   return s;
 }
 
@@ -93,7 +120,7 @@ int check_command(const CommonOptions& args) {
     j["threads"] = threads;
     j["baseline"] = baseline;
     for (const auto& p : sc.policies)
-      j["policies"].push_back({{"name", p.name}, {"parts", policy_text(p)}});
+      j["policies"].push_back({{"name", p.name}, {"parts", policy_text(sc, p)}});
     if (sc.drill) j["drill"] = drill_json(sc, *sc.drill);
     fmt::print("{}\n", j.dump(2));
     return 0;
@@ -116,7 +143,7 @@ int check_command(const CommonOptions& args) {
         e.poisson_fallback_days);
   }
   fmt::print("  policies      {} (baseline: {})\n", sc.policies.size(), baseline);
-  for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(p));
+  for (const auto& p : sc.policies) fmt::print("    {:<20} {}\n", p.name, policy_text(sc, p));
   if (sc.drill) fmt::print("{}", drill_text(sc, *sc.drill));
   fmt::print("  estimate      about {} on {} thread{}{}, about {} of memory\n",
              format_duration(e.seconds), threads, threads == 1 ? "" : "s",

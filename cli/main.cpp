@@ -54,6 +54,11 @@ std::string parts_help() {
     s += fmt::format("  quantity  {:<18} {}\n", p.name, p.summary);
   for (const auto& p : r.adjustments.all())
     s += fmt::format("  adjust    {:<18} {}\n", p.name, p.summary);
+  s += "A policy may also handle leftovers its own way, compared with the others on the same\n"
+       "customers: `leftovers: donate` (or discard, salvage, discount_next_day) for every item,\n"
+       "or `leftovers: { rule, next_day, markdown, salvage_value, items: [ids] | where: {k: v} }`\n"
+       "(markdown: { from_hour, price, surplus_only: true } marks down only the expected\n"
+       "surplus; README, \"Leftover handling as part of a policy\").\n";
   return s;
 }
 

@@ -157,13 +157,19 @@ int sweep_command(const SweepArgs& args) {
                      {"sensitivity.csv", "ranks.csv"});
   fmt::print("sweep of {} ({} points, {} replications each, seed {})\n", spec.label, points.size(),
              info.replications, info.seed);
+  const bool on_surplus = marks.waste == Metric::surplus_share;
+  const char* waste_word = on_surplus ? "surplus" : "waste";
   fmt::print(
-      "frontier marks: W = no other row has less waste and more in stock; "
-      "P = none has less waste and more profit\n\n");
+      "frontier marks: W = no other row has less {0} and more in stock; P = none has less "
+      "{0} and more profit{1}\n\n",
+      waste_word,
+      on_surplus ? " (surplus: units not sold at full price, donated and salvaged "
+                   "included, so donation does not win by definition)"
+                 : "");
   std::string head = fmt::format("{:>5}", "point");
   for (const Setting& s : spec.settings)
     head += fmt::format("  {:>12}", s.path.substr(s.path.rfind('.') + 1));
-  head += fmt::format("  {:<18} {:>9} {:>9} {:>9} {:>14}  {}\n", "policy", "waste", "in stock",
+  head += fmt::format("  {:<18} {:>9} {:>9} {:>9} {:>14}  {}\n", "policy", waste_word, "in stock",
                       "fill rate", "profit", "frontier");
   fmt::print("{}", head);
   size_t row = 0;
@@ -174,7 +180,7 @@ int sweep_command(const SweepArgs& args) {
       std::string line = fmt::format("{:>5}", i + 1);
       for (const std::string& v : points[i].values) line += fmt::format("  {:>12}", v);
       line += fmt::format("  {:<18} {:>8.1f}% {:>8.1f}% {:>8.1f}% {:>14.0f}  {}{}\n", r.policies[p],
-                          100 * policy_estimate(r, k, Metric::waste_share).mean,
+                          100 * policy_estimate(r, k, marks.waste).mean,
                           100 * policy_estimate(r, k, Metric::in_stock_at_close).mean,
                           100 * policy_estimate(r, k, Metric::fill_rate).mean,
                           policy_estimate(r, k, Metric::profit).mean,

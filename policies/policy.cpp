@@ -2,6 +2,8 @@
 
 #include <fmt/format.h>
 
+#include <memory>
+
 namespace larder {
 
 namespace {
@@ -35,14 +37,20 @@ std::vector<Policy> build_policies(const Scenario& scenario, Diagnostics& diag) 
   for (const PolicySpec& spec : scenario.policies) {
     Policy p;
     p.name = spec.name;
-    p.forecast = create_part(reg.forecasts, spec.forecast, "forecast method", "method", scenario,
+    if (!spec.items.empty()) {
+      auto own = std::make_shared<Scenario>(scenario);
+      own->items = spec.items;
+      p.own_scenario = std::move(own);
+    }
+    const Scenario& seen = p.seen(scenario);
+    p.forecast = create_part(reg.forecasts, spec.forecast, "forecast method", "method", seen,
                              spec.observe_intraday, diag);
-    p.censoring = create_part(reg.censorings, spec.censoring, "censoring treatment", "method",
-                              scenario, spec.observe_intraday, diag);
-    p.quantity = create_part(reg.quantities, spec.quantity, "quantity rule", "rule", scenario,
+    p.censoring = create_part(reg.censorings, spec.censoring, "censoring treatment", "method", seen,
+                              spec.observe_intraday, diag);
+    p.quantity = create_part(reg.quantities, spec.quantity, "quantity rule", "rule", seen,
                              spec.observe_intraday, diag);
     for (const PartSpec& a : spec.adjustments) {
-      p.adjustments.push_back(create_part(reg.adjustments, a, "adjustment", "method", scenario,
+      p.adjustments.push_back(create_part(reg.adjustments, a, "adjustment", "method", seen,
                                           spec.observe_intraday, diag));
     }
     out.push_back(std::move(p));

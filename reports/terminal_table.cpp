@@ -15,12 +15,22 @@ namespace larder {
 namespace {
 
 // Shown when the run reports them (substitution and discount metrics only when the scenario
-// has those features; see applicable_metrics).
+// has those features; see applicable_metrics; donated units only when some policy donates).
 constexpr std::array kTableMetrics = {
-    Metric::waste_units,       Metric::waste_share, Metric::in_stock_at_close,
-    Metric::no_stockout_share, Metric::fill_rate,   Metric::served_share,
-    Metric::lost_units,        Metric::sold_units,  Metric::discounted_units,
-    Metric::revenue,           Metric::profit,      Metric::waste_kg,
+    Metric::waste_units,
+    Metric::waste_share,
+    Metric::in_stock_at_close,
+    Metric::no_stockout_share,
+    Metric::fill_rate,
+    Metric::served_share,
+    Metric::lost_units,
+    Metric::sold_units,
+    Metric::discounted_units,
+    Metric::donated_units,
+    Metric::surplus_units,
+    Metric::revenue,
+    Metric::profit,
+    Metric::waste_kg,
     Metric::co2e_kg,
 };
 
@@ -199,9 +209,18 @@ std::string plan_group_block(const RunResult& result, size_t policy, bool color)
 std::vector<Metric> table_metrics(const RunResult& result) {
   std::vector<Metric> out;
   for (Metric m : kTableMetrics) {
-    if (std::find(result.metrics.begin(), result.metrics.end(), m) != result.metrics.end()) {
-      out.push_back(m);
+    if (std::find(result.metrics.begin(), result.metrics.end(), m) == result.metrics.end()) {
+      continue;
     }
+    // Donated units only when some policy donates (else a column of zeros).
+    if (m == Metric::donated_units) {
+      bool any = false;
+      for (const auto& rows : result.values) {
+        for (const MetricVector& v : rows) any = any || at(v, m) > 0.0;
+      }
+      if (!any) continue;
+    }
+    out.push_back(m);
   }
   return out;
 }

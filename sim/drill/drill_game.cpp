@@ -240,7 +240,7 @@ DrillOutcome DrillGame::play(const DrillDecisions& decided) {
               minus(now[static_cast<size_t>(i)], before[p][static_cast<size_t>(i)]);
           before[p][static_cast<size_t>(i)] = now[static_cast<size_t>(i)];
         }
-        out.daily[p].push_back(compute_metrics(day, s.items));
+        out.daily[p].push_back(compute_metrics(day, policies_[p].seen(s).items));
       }
     }
     const auto seen = run.observations(trainee);
@@ -268,7 +268,7 @@ DrillOutcome DrillGame::play(const DrillDecisions& decided) {
   for (size_t p = 0; p < n_pol; ++p) {
     std::vector<Tally> total(n_items);
     for (const int i : sp.items) total[static_cast<size_t>(i)] = before[p][static_cast<size_t>(i)];
-    out.totals.push_back(compute_metrics(total, s.items));
+    out.totals.push_back(compute_metrics(total, policies_[p].seen(s).items));
   }
   return out;
 }

@@ -30,6 +30,19 @@ constexpr std::array<MetricInfo, kMetricCount> kInfo = {{
     {"waste_value", "money", "wasted units x unit cost", -1},
     {"waste_kg", "kg", "wasted units x weight", -1},
     {"co2e_kg", "kg", "wasted units x CO2e per unit", -1},
+    {"surplus_units", "units",
+     "units that did not sell at full price before their last day's close: wasted + donated + "
+     "salvaged + sold at a discount",
+     -1},
+    {"surplus_share", "share", "surplus_units / delivered_units", -1},
+    {"surplus_kg", "kg", "surplus units x weight", -1},
+    {"surplus_co2e_kg", "kg", "surplus units x CO2e per unit", -1},
+    {"donated_kg", "kg", "donated units x weight", 0},
+    {"donated_co2e_kg", "kg", "donated units x CO2e per unit", 0},
+    {"salvaged_kg", "kg", "salvaged units x weight", 0},
+    {"salvaged_co2e_kg", "kg", "salvaged units x CO2e per unit", 0},
+    {"discounted_kg", "kg", "units sold at a discount x weight", 0},
+    {"discounted_co2e_kg", "kg", "units sold at a discount x CO2e per unit", 0},
 }};
 }  // namespace
 

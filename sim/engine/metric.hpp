@@ -34,8 +34,19 @@ enum class Metric : std::size_t {
   waste_value,
   waste_kg,
   co2e_kg,
+  surplus_units,
+  surplus_share,
+  surplus_kg,
+  surplus_co2e_kg,
+  donated_kg,
+  donated_co2e_kg,
+  salvaged_kg,
+  salvaged_co2e_kg,
+  discounted_kg,
+  discounted_co2e_kg,
 };
-inline constexpr std::size_t kMetricCount = static_cast<std::size_t>(Metric::co2e_kg) + 1;
+inline constexpr std::size_t kMetricCount =
+    static_cast<std::size_t>(Metric::discounted_co2e_kg) + 1;
 
 /// What a metric is, for tables and reports.
 struct MetricInfo {

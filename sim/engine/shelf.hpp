@@ -72,6 +72,8 @@ class Shelf {
     s[0] = 0;
     return n;
   }
+  /// Puts back `units` of those `expire` removed today (they stay on sale until the close).
+  void restore_last_day(int item, int units) { slots(item)[0] += units; }
   /// Overnight: every unit has one day less to live (call after expire).
   void age(int item) {
     std::int32_t* s = slots(item);

@@ -81,13 +81,34 @@ void dispose(Observation& o, int units, Leftovers how) {
   }
 }
 
+/// How one policy handles an item's leftovers, as the day loop needs it.
+struct LaneItem {
+  Leftovers leftovers = Leftovers::discard;
+  int markdown_bucket = -1;   ///< bucket from which last-day units are marked down, or -1
+  bool surplus_only = false;  ///< mark down only the units expected to be left at close
+  double rest_share = 0.0;    ///< share of the day's customers from the markdown bucket on
+  double bargain_rate = 0.0;  ///< bargain-only customers per unit of the day's mean demand
+};
+
+/// The expected units of `last` last-day units that full-price customers still buy after the
+/// markdown hour, when `rest` customers are expected until close and `fresher` units with more
+/// days to live are beside them: a share `fifo` of the sales comes from the oldest end, the rest
+/// from the freshest end (model.md, step 3), so last-day units also sell once the fresher ones
+/// are gone.
+int expected_last_day_sales(int last, int fresher, double rest, double fifo) {
+  const double r = std::min(rest, static_cast<double>(last + fresher));
+  const double from_last = fifo * r + (1.0 - fifo) * std::max(r - fresher, 0.0);
+  return std::min(last, static_cast<int>(std::lround(from_last)));
+}
+
 }  // namespace
 
 /// The state of one policy at this store.
 struct StoreRun::Lane {
-  Lane(const Policy& p, const StoreView& view, std::span<const int> life, int items, int lead,
+  Lane(const Policy& p, const StoreView& v, std::span<const int> life, int items, int lead,
        bool observes_intraday)
-      : observe_intraday(observes_intraday),
+      : view(v),
+        observe_intraday(observes_intraday),
         forecaster(p.forecast->make(view)),
         censoring(p.censoring->make(view)),
         rule(p.quantity->make(view)),
@@ -108,6 +129,7 @@ struct StoreRun::Lane {
     for (const auto& a : p.adjustments) adjusters.push_back(a->make(view));
   }
 
+  StoreView view;         ///< the scenario as this policy sees it (its own leftover handling)
   bool observe_intraday;  ///< the policy sees sell-out times
   std::unique_ptr<Forecaster> forecaster;
   std::unique_ptr<CensoringState> censoring;
@@ -128,6 +150,11 @@ struct StoreRun::Lane {
   std::vector<int> others;
   std::vector<Pools> pools;                ///< per item, today's stock by tier
   std::vector<std::int32_t> sold_by_hour;  ///< [item * buckets + h]: sales up to the end of h
+  std::vector<LaneItem> handling;          ///< per item: this policy's leftover handling
+  std::vector<SplitPlan> bargain_plans;    ///< per item: bargain-only customers over the buckets
+  std::vector<int> bargain;                ///< [item * buckets + h]: today's bargain customers
+  std::vector<DemandForecast> today;       ///< today's forecast, for a surplus-only markdown
+  bool surplus_markdown = false;           ///< some item is marked down surplus-only
   // Scratch buffers, reused every day.
   std::vector<DemandForecast> predicted;
   std::vector<DemandForecast> forecast;
@@ -139,10 +166,10 @@ struct StoreRun::Lane {
   /// Heap bytes of the lane's own buffers (not its policy parts').
   std::size_t bytes() const {
     return sizeof(Lane) + shelf.bytes() + held(pipeline) + held(pipeline_view) + held(observed) +
-           held(tally) + held(closes) + held(goodwill) + held(demand) + held(next_day) +
-           held(substituted) + held(acceptors) + held(others) + held(pools) + held(sold_by_hour) +
-           held(predicted) + held(forecast) + held(day_forecast) + held(estimates) + held(inputs) +
-           held(orders);
+           held(tally) + held(closes) + held(goodwill) + held(demand) + held(next_day) + held(substituted) +
+           held(acceptors) + held(others) + held(pools) + held(sold_by_hour) + held(handling) +
+           held_each(bargain_plans) + held(bargain) + held(today) + held(predicted) +
+           held(forecast) + held(day_forecast) + held(estimates) + held(inputs) + held(orders);
   }
 };
 
@@ -163,7 +190,7 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
                        static_cast<std::uint32_t>(store), static_cast<std::uint32_t>(i), p};
     };
     demand_streams_.push_back(make_stream(key(Purpose::demand)));
-    runtime_.push_back({item.shelf_life_days, item.leftovers, -1});
+    runtime_.push_back({item.shelf_life_days, -1});
     // A picking split is random only when units of different ages can be on the shelf and
     // shoppers are mixed; otherwise it is deterministic and draws nothing.
     if (item.shelf_life_days > 1 && fifo > 0.0 && fifo < 1.0) {
@@ -207,10 +234,16 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
   setup_detail();
   for (size_t k = 0; k < setup.policies.size(); ++k) {
     const bool observe = k < sc.policies.size() && sc.policies[k].observe_intraday;
-    lanes_.push_back(std::make_unique<Lane>(setup.policies[k], view_, shelf_life_, items_,
+    const Scenario& seen = setup.policies[k].seen(sc);
+    const StoreView lane_view{seen, setup.demand, store};
+    lanes_.push_back(std::make_unique<Lane>(setup.policies[k], lane_view, shelf_life_, items_,
                                             lead_time_, observe && hourly_));
     Lane& lane = *lanes_.back();
+    lane.handling.resize(static_cast<size_t>(items_));
+    for (size_t i = 0; i < lane.handling.size(); ++i)
+      lane.handling[i].leftovers = seen.items[i].leftovers;
     if (!detailed_) continue;
+    setup_lane_detail(lane, seen.items);
     lane.next_day.assign(static_cast<size_t>(items_), 0);
     lane.pools.assign(static_cast<size_t>(items_), Pools{});
     lane.substituted.assign(pair_to_.size(), 0);
@@ -222,14 +255,35 @@ StoreRun::StoreRun(const SimSetup& setup, int replication, int store)
   }
 }
 
+namespace {
+/// Bargain-only customers of an item by bucket, as a share of its day's customers: the next-day
+/// tier's all day, the markdown's uplift in the markdown hours (-1: no markdown).
+std::vector<double> bargain_weights(const Item& it, std::span<const double> shares,
+                                    int markdown_bucket) {
+  std::vector<double> w(shares.size(), 0.0);
+  for (size_t h = 0; h < shares.size(); ++h) {
+    double x = it.next_day ? it.next_day->bargain_demand : 0.0;
+    if (markdown_bucket >= 0 && static_cast<int>(h) >= markdown_bucket) x += it.markdown->uplift;
+    w[h] = shares[h] * x;
+  }
+  return w;
+}
+}  // namespace
+
 void StoreRun::setup_detail() {
   const Scenario& sc = setup_.scenario;
+  // Every policy's view of the items (they differ only in leftover handling).
+  std::vector<const std::vector<Item>*> views;
+  for (const Policy& p : setup_.policies) views.push_back(&p.seen(sc).items);
+  if (views.empty()) views.push_back(&sc.items);
   bool needs_hours = setup_.detail == DayDetail::hourly;
   bool needs_tiers = setup_.detail == DayDetail::one_bucket;
-  for (const Item& it : sc.items) {
-    needs_hours = needs_hours || !it.substitutes.empty() || it.markdown.has_value() ||
-                  (it.next_day && it.next_day->bargain_demand > 0.0);
-    needs_tiers = needs_tiers || it.next_day.has_value();
+  for (const std::vector<Item>* v : views) {
+    for (const Item& it : *v) {
+      needs_hours = needs_hours || !it.substitutes.empty() || it.markdown.has_value() ||
+                    (it.next_day && it.next_day->bargain_demand > 0.0);
+      needs_tiers = needs_tiers || it.next_day.has_value();
+    }
   }
   for (const PolicySpec& p : sc.policies) needs_hours = needs_hours || p.observe_intraday;
   hourly_ = needs_hours;
@@ -239,30 +293,28 @@ void StoreRun::setup_detail() {
   buckets_ = h_count;
   const size_t hb = static_cast<size_t>(h_count);
   for (int i = 0; i < items_; ++i) {
-    const Item& it = sc.items[static_cast<size_t>(i)];
-    ItemRuntime& rt = runtime_[static_cast<size_t>(i)];
+    const size_t ii = static_cast<size_t>(i);
+    const Item& it = sc.items[ii];
+    ItemRuntime& rt = runtime_[ii];
     std::vector<double> shares =
         hourly_ ? intraday_shares(it, sc.calendar) : std::vector<double>{1.0};
     hour_plans_.push_back(plan_split(shares, true));
-    rt.tiers = it.next_day.has_value() || it.markdown.has_value();
-    if (it.markdown && hourly_) rt.markdown_bucket = it.markdown->from_hour - sc.calendar.open_hour;
-    // Bargain-only customers arrive like the item's customers, in the hours a discount is shown.
-    std::vector<double> bargain(hb, 0.0);
-    for (size_t h = 0; h < hb; ++h) {
-      double w = it.next_day ? it.next_day->bargain_demand : 0.0;
-      if (rt.markdown_bucket >= 0 && static_cast<int>(h) >= rt.markdown_bucket) {
-        w += it.markdown->uplift;
-      }
-      bargain[h] = shares[h] * w;
-      rt.bargain_rate += bargain[h];
+    // The union of the policies' needs, so that every policy meets the same customers.
+    for (const std::vector<Item>* v : views) {
+      const Item& seen = (*v)[ii];
+      rt.tiers = rt.tiers || seen.next_day.has_value() || seen.markdown.has_value();
+      const int mb =
+          seen.markdown && hourly_ ? seen.markdown->from_hour - sc.calendar.open_hour : -1;
+      rt.two_picks = rt.two_picks || mb >= 0;
+      double rate = 0.0;
+      for (double w : bargain_weights(seen, shares, mb)) rate += w;
+      rt.bargain = rt.bargain || rate > 0.0;
     }
-    for (double& b : bargain) b = rt.bargain_rate > 0.0 ? b / rt.bargain_rate : 1.0 / h_count;
-    bargain_plans_.push_back(plan_split(bargain, true));
     // Daily intraday uniforms: [split of acceptors] [split of the others] [bargain count]
     // [split of bargain customers]. The acceptor count has its own stream, so that it is the
     // same draw whatever the number of buckets.
     rt.intraday_u = static_cast<int>(intraday_u_.size());
-    rt.intraday_n = (rt.tiers ? 2 : 1) * (h_count - 1) + (rt.bargain_rate > 0.0 ? h_count : 0);
+    rt.intraday_n = (rt.tiers ? 2 : 1) * (h_count - 1) + (rt.bargain ? h_count : 0);
     intraday_u_.resize(intraday_u_.size() + static_cast<size_t>(rt.intraday_n), 0.0);
     const auto key = [&](Purpose p) {
       return StreamKey{setup_.seed, static_cast<std::uint32_t>(replication_),
@@ -288,7 +340,33 @@ void StoreRun::setup_detail() {
   choice_u_.assign(choice_streams_.size(), 0.0);
   acceptors_.assign(static_cast<size_t>(items_) * hb, 0);
   others_.assign(static_cast<size_t>(items_) * hb, 0);
-  bargain_.assign(static_cast<size_t>(items_) * hb, 0);
+  bargain_mean_.assign(static_cast<size_t>(items_), 0.0);
+}
+
+void StoreRun::setup_lane_detail(Lane& lane, std::span<const Item> items) {
+  const Scenario& sc = setup_.scenario;
+  const size_t hb = static_cast<size_t>(buckets_);
+  for (size_t i = 0; i < items.size(); ++i) {
+    const Item& it = items[i];
+    LaneItem& li = lane.handling[i];
+    const std::vector<double> shares =
+        hourly_ ? intraday_shares(sc.items[i], sc.calendar) : std::vector<double>{1.0};
+    if (it.markdown && hourly_) {
+      li.markdown_bucket = it.markdown->from_hour - sc.calendar.open_hour;
+      li.surplus_only = it.markdown->surplus_only;
+      for (size_t h = static_cast<size_t>(li.markdown_bucket); h < shares.size(); ++h)
+        li.rest_share += shares[h];
+      lane.surplus_markdown = lane.surplus_markdown || li.surplus_only;
+    }
+    // Bargain-only customers arrive like the item's customers, in the hours a discount is shown.
+    std::vector<double> bargain = bargain_weights(it, shares, li.markdown_bucket);
+    for (double b : bargain) li.bargain_rate += b;
+    const double n_buckets = static_cast<double>(hb);
+    for (double& b : bargain) b = li.bargain_rate > 0.0 ? b / li.bargain_rate : 1.0 / n_buckets;
+    lane.bargain_plans.push_back(plan_split(bargain, true));
+  }
+  lane.bargain.assign(items.size() * hb, 0);
+  if (lane.surplus_markdown) lane.today.assign(items.size(), DemandForecast{});
 }
 
 StoreRun::~StoreRun() = default;
@@ -370,10 +448,10 @@ std::size_t StoreRun::bytes_shared() const {
          held(next_delivery_) + held(demand_streams_) + held(picking_streams_) + held(runtime_) +
          held(demand_) + held(demand_u_) + held(mean_) + held(persistence_streams_) +
          held(persistence_log_) + held(picking_u_) + held_each(hour_plans_) +
-         held_each(bargain_plans_) + held_each(substitute_plans_) + held(substitute_split_) +
-         held(pair_to_) + held(intraday_streams_) + held(substitution_streams_) +
-         held(choice_streams_) + held(intraday_u_) + held(choice_u_) + held(substitution_u_) +
-         held(acceptors_) + held(others_) + held(bargain_) + held(lanes_);
+         held_each(substitute_plans_) + held(substitute_split_) + held(pair_to_) +
+         held(intraday_streams_) + held(substitution_streams_) + held(choice_streams_) +
+         held(intraday_u_) + held(choice_u_) + held(substitution_u_) + held(acceptors_) +
+         held(others_) + held(bargain_mean_) + held(lanes_);
 }
 
 void StoreRun::run_days(int begin, int end) {
@@ -406,7 +484,7 @@ void StoreRun::run_day(int day) {
     pcg32& g = picking_streams_[static_cast<size_t>(k)];
     picking_u_[2 * i] = to_unit(g());
     // A marked-down item splits its full-price sales before and after the markdown hour.
-    if (runtime_[i].markdown_bucket >= 0) picking_u_[2 * i + 1] = to_unit(g());
+    if (runtime_[i].two_picks) picking_u_[2 * i + 1] = to_unit(g());
   }
   if (detailed_) draw_detail(day, open);
   for (auto& lane : lanes_) run_lane(*lane, day, open, scored);
@@ -462,6 +540,7 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
   for (size_t i = 0; i < demand_.size(); ++i) {
     const int item = static_cast<int>(i);
     const ItemRuntime& rt = runtime_[i];
+    const Leftovers how = lane.handling[i].leftovers;
     Observation o;
     o.open = open;
     // 1. Morning delivery.
@@ -490,7 +569,7 @@ void StoreRun::run_lane(Lane& lane, int day, bool open, bool scored) {
     // 4. Close.
     o.leftover = stock - o.sold;
     o.sold_out = open && o.leftover == 0;
-    switch (rt.leftovers) {
+    switch (how) {
       case Leftovers::salvage:
         o.salvaged = leaving;
         break;
@@ -543,19 +622,29 @@ void StoreRun::draw_detail(int day, bool open) {
     for (size_t k = 0; k < n_us; ++k) us[k] = to_unit(substitution_streams_[i]());
     if (!goodwill_)
       split_customers(static_cast<int>(i), demand_[i], &acceptors_[i * hb], &others_[i * hb]);
-    if (rt.bargain_rate > 0.0) {
-      // Bargain-only customers: Poisson with the day's mean (before goodwill) times the rate,
-      // spread over the hours a discount is shown.
-      const double m = !open      ? 0.0
-                       : dynamic_ ? mean_[i]
-                                  : setup_.demand.mean(store_, static_cast<int>(i), day);
-      const double* ub = u + rt.intraday_n - buckets_;
-      const int n = m > 0.0 ? CountLaw::make(DemandFamily::poisson, m * rt.bargain_rate,
-                                             std::nullopt, std::nullopt)
-                                  .quantile(ub[0])
-                            : 0;
-      split_count(n, bargain_plans_[i], {ub + 1, hb - 1}, {&bargain_[i * hb], hb});
+    if (rt.bargain) {
+      // Bargain-only customers: Poisson with the day's mean (before goodwill) times each
+      // policy's rate (draw_bargain), from the same uniforms.
+      bargain_mean_[i] = !open      ? 0.0
+                         : dynamic_ ? mean_[i]
+                                    : setup_.demand.mean(store_, static_cast<int>(i), day);
     }
+  }
+}
+
+void StoreRun::draw_bargain(Lane& lane) {
+  const size_t hb = static_cast<size_t>(buckets_);
+  for (size_t i = 0; i < runtime_.size(); ++i) {
+    const double rate = lane.handling[i].bargain_rate;
+    if (rate <= 0.0) continue;
+    const ItemRuntime& rt = runtime_[i];
+    const double* ub = intraday_u_.data() + rt.intraday_u + rt.intraday_n - buckets_;
+    const double m = bargain_mean_[i];
+    const int n = m > 0.0
+                      ? CountLaw::make(DemandFamily::poisson, m * rate, std::nullopt, std::nullopt)
+                            .quantile(ub[0])
+                      : 0;
+    split_count(n, lane.bargain_plans[i], {ub + 1, hb - 1}, {&lane.bargain[i * hb], hb});
   }
 }
 
@@ -607,6 +696,12 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
   };
   std::vector<Pools>& pools = lane.pools;
   std::vector<Observation>& obs = lane.observed;
+  draw_bargain(lane);
+  if (lane.surplus_markdown && open) {
+    // What the store expects of today (a surplus-only markdown sizes itself on it).
+    lane.forecaster->predict(day, lane.today);
+    lane.censoring->refine(day, lane.today);
+  }
   // 1. Morning delivery.
   for (size_t i = 0; i < n_items; ++i) {
     Observation& o = obs[i];
@@ -625,10 +720,20 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
   for (size_t h = 0; h < hb; ++h) {
     for (size_t i = 0; i < n_items; ++i) {
       Pools& p = pools[i];
-      if (runtime_[i].markdown_bucket == static_cast<int>(h)) {
-        settle(static_cast<int>(i), p, 0);
-        p.markdown = lane.shelf.expire(static_cast<int>(i));  // units on their last day
-        p.full = lane.shelf.total(static_cast<int>(i));
+      const LaneItem& li = lane.handling[i];
+      if (li.markdown_bucket == static_cast<int>(h)) {
+        const int item = static_cast<int>(i);
+        settle(item, p, 0);
+        p.markdown = lane.shelf.expire(item);  // units on their last day
+        if (li.surplus_only && p.markdown > 0) {
+          // Only the units expected to be left at close: the forecast of the customers still
+          // to come, by the intraday profile, against the stock by age.
+          const double rest = open ? lane.today[i].mean * li.rest_share : 0.0;
+          const int keep = expected_last_day_sales(p.markdown, lane.shelf.total(item), rest, fifo);
+          lane.shelf.restore_last_day(item, keep);
+          p.markdown -= keep;
+        }
+        p.full = lane.shelf.total(item);
       }
       p.own_start = p.own();
       if (h == 0 && p.own_start == 0) p.sellout = 0.0f;  // nothing to sell at opening
@@ -665,9 +770,9 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
       p.lost += left;
     }
     for (size_t i = 0; i < n_items; ++i) {
-      if (runtime_[i].bargain_rate <= 0.0) continue;
+      if (lane.handling[i].bargain_rate <= 0.0) continue;
       Pools& p = pools[i];
-      const int want = bargain_[i * hb + h];
+      const int want = lane.bargain[i * hb + h];
       const int got = std::min(want, p.discounted());
       p.take_discounted(got);
       p.bargain += got;
@@ -688,11 +793,10 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
   // 4-5. Close and end of life.
   const Goodwill& g = sc.goodwill;
   for (size_t i = 0; i < n_items; ++i) {
-    const ItemRuntime& rt = runtime_[i];
     const int item = static_cast<int>(i);
     Pools& p = pools[i];
     Observation& o = obs[i];
-    settle(item, p, rt.markdown_bucket >= 0 ? 1 : 0);
+    settle(item, p, lane.handling[i].markdown_bucket >= 0 ? 1 : 0);
     const int own_left = lane.shelf.total(item) + p.markdown;
     const int leaving = lane.shelf.expire(item) + p.markdown;
     lane.shelf.age(item);
@@ -701,12 +805,12 @@ void StoreRun::run_lane_detailed(Lane& lane, int day, bool open, bool scored, co
     o.leftover = own_left;
     o.sold_out = open && own_left == 0;
     if (o.sold_out && lane.observe_intraday) o.sellout_hour = p.sellout;
-    const Item& it = sc.items[i];
+    const Item& it = lane.view.scenario.items[i];
     if (it.next_day) {
       dispose(o, p.next_day, it.next_day->fallback);  // the extra day is over
       lane.next_day[i] = leaving;
     } else {
-      dispose(o, leaving, rt.leftovers);
+      dispose(o, leaving, lane.handling[i].leftovers);
     }
     const int demand = demands[i];
     if (goodwill_) {
@@ -808,7 +912,7 @@ void StoreRun::place_orders(Lane& lane, int day) {
     in.sold_today = lane.observed[ii].sold;
     in.discounted = lane.next_day.empty() ? 0 : lane.next_day[ii];
   }
-  const OrderContext ctx{view_, day, arrival, lane.forecaster.get()};
+  const OrderContext ctx{lane.view, day, arrival, lane.forecaster.get()};
   lane.rule->decide(ctx, lane.inputs, lane.orders);
   for (auto& a : lane.adjusters) a->adjust(ctx, lane.inputs, lane.observed, lane.orders);
   const size_t slot = static_cast<size_t>(arrival % lead);

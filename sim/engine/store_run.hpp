@@ -108,6 +108,11 @@ class StoreRun {
   void split_customers(int item, int demand, int* acceptors, int* others) const;
   /// The bucketed day of one lane: tiers, substitution, markdown, bargain customers.
   void run_lane_detailed(Lane& lane, int day, bool open, bool scored, const int* demands);
+  /// One lane's bargain-only customers of the day by bucket (its own rate, the shared uniforms).
+  void draw_bargain(Lane& lane);
+  /// Prepares one lane's view of the items' leftover handling (its markdown hours, bargain
+  /// customers) on the detailed path.
+  void setup_lane_detail(Lane& lane, std::span<const Item> items);
   void learn(Lane& lane, int day, bool open);
   void place_orders(Lane& lane, int day);
 
@@ -123,19 +128,21 @@ class StoreRun {
   std::vector<int> next_delivery_;       ///< per day: the next delivery day after it (or days)
   std::vector<pcg32> demand_streams_;    ///< one per item
   std::vector<pcg32> picking_streams_;   ///< one per item that needs a picking split
-  /// What the day loop needs of an item, packed.
+  /// What the day loop needs of an item, packed: what every policy shares. Leftover handling
+  /// can differ by policy (`leftovers:` on a policy), so the draws are laid out for the union of
+  /// the policies' needs (a tier, a markdown, bargain-only customers in any policy), and every
+  /// policy meets the same customers whatever its own handling.
   struct ItemRuntime {
     int life;
-    Leftovers leftovers;
     int picking;  ///< index into picking_streams_, or -1 when the split is deterministic
     // Detailed path only.
-    bool tiers = false;         ///< a discounted tier can be on the shelf (next-day or markdown)
-    int markdown_bucket = -1;   ///< bucket from which last-day units are marked down
-    int intraday_u = 0;         ///< offset of the item's daily uniforms in intraday_u_
-    int intraday_n = 0;         ///< intraday uniforms per day
-    int choice = -1;            ///< index into choice_streams_ and choice_u_, -1 without tiers
-    double bargain_rate = 0.0;  ///< bargain-only customers per unit of the day's mean demand
-    int pairs_begin = 0;        ///< the item's substitutes in pair_to_
+    bool tiers = false;      ///< a discounted tier can be on the shelf under some policy
+    bool two_picks = false;  ///< some policy marks down: two picking uniforms a day
+    bool bargain = false;    ///< some policy has bargain-only customers for the item
+    int intraday_u = 0;      ///< offset of the item's daily uniforms in intraday_u_
+    int intraday_n = 0;      ///< intraday uniforms per day
+    int choice = -1;         ///< index into choice_streams_ and choice_u_, -1 without tiers
+    int pairs_begin = 0;     ///< the item's substitutes in pair_to_
     int pairs_end = 0;
   };
   std::vector<ItemRuntime> runtime_;
@@ -156,7 +163,6 @@ class StoreRun {
   bool hourly_ = false;                      ///< buckets are the opening hours
   int buckets_ = 1;                          ///< time buckets per day
   std::vector<SplitPlan> hour_plans_;        ///< per item: its customers over the buckets
-  std::vector<SplitPlan> bargain_plans_;     ///< per item: bargain-only customers over them
   std::vector<SplitPlan> substitute_plans_;  ///< per item: its lost customers over substitutes
   std::vector<int> substitute_split_;        ///< scratch: one bucket's split over substitutes
   /// Every substitution pair's substitute item, by origin item (runtime_[i].pairs_begin..end);
@@ -169,9 +175,9 @@ class StoreRun {
   std::vector<double> choice_u_;             ///< today's tier-choice uniform per tiered item
   /// The item's pairs by bucket: [pairs_begin * buckets + h * pairs + j].
   std::vector<double> substitution_u_;
-  std::vector<int> acceptors_;  ///< [item * buckets + h], shared unless goodwill
-  std::vector<int> others_;     ///< [item * buckets + h]
-  std::vector<int> bargain_;    ///< [item * buckets + h]: bargain-only customers
+  std::vector<int> acceptors_;        ///< [item * buckets + h], shared unless goodwill
+  std::vector<int> others_;           ///< [item * buckets + h]
+  std::vector<double> bargain_mean_;  ///< per item: today's mean before goodwill (0 closed)
   std::vector<std::unique_ptr<Lane>> lanes_;
 };
 

@@ -45,8 +45,19 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
     at(v, Metric::disposal_cost) += d(c.wasted) * it.disposal_cost;
     at(v, Metric::penalty_cost) += d(c.lost) * it.stockout_penalty;
     at(v, Metric::waste_value) += d(c.wasted) * it.unit_cost;
-    at(v, Metric::waste_kg) += d(c.wasted) * it.weight_kg.value_or(0.0);
-    at(v, Metric::co2e_kg) += d(c.wasted) * it.co2e_kg.value_or(0.0);
+    const double kg = it.weight_kg.value_or(0.0);
+    const double co2e = it.co2e_kg.value_or(0.0);
+    at(v, Metric::waste_kg) += d(c.wasted) * kg;
+    at(v, Metric::co2e_kg) += d(c.wasted) * co2e;
+    at(v, Metric::donated_kg) += d(c.donated) * kg;
+    at(v, Metric::donated_co2e_kg) += d(c.donated) * co2e;
+    at(v, Metric::salvaged_kg) += d(c.salvaged) * kg;
+    at(v, Metric::salvaged_co2e_kg) += d(c.salvaged) * co2e;
+    at(v, Metric::discounted_kg) += d(discounted) * kg;
+    at(v, Metric::discounted_co2e_kg) += d(discounted) * co2e;
+    const std::int64_t surplus = c.wasted + c.donated + c.salvaged + discounted;
+    at(v, Metric::surplus_kg) += d(surplus) * kg;
+    at(v, Metric::surplus_co2e_kg) += d(surplus) * co2e;
   }
   at(v, Metric::demand_units) = static_cast<double>(t.demand);
   at(v, Metric::sold_units) = static_cast<double>(t.sold());
@@ -56,6 +67,10 @@ MetricVector compute_metrics(std::span<const Tally> per_item, std::span<const It
   at(v, Metric::waste_units) = static_cast<double>(t.wasted);
   at(v, Metric::salvaged_units) = static_cast<double>(t.salvaged);
   at(v, Metric::donated_units) = static_cast<double>(t.donated);
+  const std::int64_t surplus =
+      t.wasted + t.donated + t.salvaged + t.sold_next_day + t.sold_markdown;
+  at(v, Metric::surplus_units) = static_cast<double>(surplus);
+  at(v, Metric::surplus_share) = ratio(surplus, t.delivered, 0.0);
   at(v, Metric::delivered_units) = static_cast<double>(t.delivered);
   at(v, Metric::waste_share) = ratio(t.wasted, t.delivered, 0.0);
   at(v, Metric::in_stock_at_close) = ratio(t.in_stock_days, t.open_days, 0.0);

@@ -1,5 +1,6 @@
 #include "sim/runner/breakdown.hpp"
 
+#include <algorithm>
 #include <set>
 
 namespace larder {
@@ -24,6 +25,25 @@ BreakdownDimensions breakdown_dimensions(const Scenario& scenario, const Groupin
     d.names.push_back(k);
     d.maps.push_back(make_groups({GroupingKind::attribute, k}, scenario));
   }
+  // Store attributes, as `store:<key>`: values in order of first appearance over the stores,
+  // "(none)" for stores without the key (as make_groups does for item attributes).
+  std::set<std::string> store_keys;
+  for (const Store& st : scenario.stores) {
+    for (const auto& [k, v] : st.attributes) store_keys.insert(k);
+  }
+  for (const std::string& k : store_keys) {
+    GroupMap m;
+    for (const Store& st : scenario.stores) {
+      const auto found = st.attributes.find(k);
+      const std::string value = found == st.attributes.end() ? "(none)" : found->second;
+      auto at = std::find(m.names.begin(), m.names.end(), value);
+      if (at == m.names.end()) at = m.names.insert(m.names.end(), value);
+      const int g = static_cast<int>(at - m.names.begin());
+      for (size_t i = 0; i < n_items; ++i) m.of_store_item.push_back(g);
+    }
+    d.names.push_back("store:" + k);
+    d.maps.push_back(std::move(m));
+  }
   if (plan != nullptr) {
     d.names.push_back("plan_group");
     d.maps.push_back(make_groups(*plan, scenario));
@@ -39,7 +59,8 @@ std::vector<BreakdownKey> breakdown_keys(const BreakdownDimensions& d) {
   return out;
 }
 
-std::vector<MetricVector> breakdown_values(const Scenario& scenario, const BreakdownDimensions& d,
+std::vector<MetricVector> breakdown_values(const Scenario& scenario, std::span<const Item> items,
+                                           const BreakdownDimensions& d,
                                            std::span<const StoreTallies> stores, size_t policy) {
   const size_t n_items = scenario.items.size();
   std::vector<MetricVector> out;
@@ -54,8 +75,8 @@ std::vector<MetricVector> breakdown_values(const Scenario& scenario, const Break
       }
     }
     for (size_t g = 0; g < static_cast<size_t>(map.count()); ++g) {
-      out.push_back(compute_metrics(std::span<const Tally>(sums).subspan(g * n_items, n_items),
-                                    scenario.items));
+      out.push_back(
+          compute_metrics(std::span<const Tally>(sums).subspan(g * n_items, n_items), items));
     }
   }
   return out;

@@ -23,14 +23,25 @@ std::vector<Metric> applicable_metrics(const Scenario& scenario) {
   bool substitution = false;
   bool discount = false;
   bool salvage = false;
-  for (const Item& it : scenario.items) {
-    weight = weight || it.weight_kg.has_value();
-    co2e = co2e || it.co2e_kg.has_value();
-    substitution = substitution || !it.substitutes.empty();
-    discount = discount || it.next_day.has_value() || it.markdown.has_value();
-    salvage = salvage || it.leftovers == Leftovers::salvage ||
-              (it.next_day && it.next_day->fallback == Leftovers::salvage);
+  bool donate = false;
+  // Every policy's view of the items (`leftovers:` on a policy changes only their handling).
+  std::vector<const std::vector<Item>*> views = {&scenario.items};
+  for (size_t p = 0; p < scenario.policies.size(); ++p)
+    views.push_back(&scenario.items_of(static_cast<int>(p)));
+  for (const std::vector<Item>* view : views) {
+    for (const Item& it : *view) {
+      weight = weight || it.weight_kg.has_value();
+      co2e = co2e || it.co2e_kg.has_value();
+      substitution = substitution || !it.substitutes.empty();
+      discount = discount || it.next_day.has_value() || it.markdown.has_value();
+      salvage = salvage || it.leftovers == Leftovers::salvage ||
+                (it.next_day && it.next_day->fallback == Leftovers::salvage);
+      donate = donate || it.leftovers == Leftovers::donate ||
+               (it.next_day && it.next_day->fallback == Leftovers::donate);
+    }
   }
+  // The surplus differs from the waste only when some units leave another way.
+  const bool surplus = discount || salvage || donate;
   std::vector<Metric> out;
   for (size_t k = 0; k < kMetricCount; ++k) {
     const Metric m = static_cast<Metric>(k);
@@ -41,6 +52,15 @@ std::vector<Metric> applicable_metrics(const Scenario& scenario) {
     if (m == Metric::full_price_revenue && !discount && !salvage) continue;
     if (m == Metric::waste_kg && !weight) continue;
     if (m == Metric::co2e_kg && !co2e) continue;
+    if ((m == Metric::surplus_units || m == Metric::surplus_share) && !surplus) continue;
+    if (m == Metric::surplus_kg && !(surplus && weight)) continue;
+    if (m == Metric::surplus_co2e_kg && !(surplus && co2e)) continue;
+    if (m == Metric::donated_kg && !(donate && weight)) continue;
+    if (m == Metric::donated_co2e_kg && !(donate && co2e)) continue;
+    if (m == Metric::salvaged_kg && !(salvage && weight)) continue;
+    if (m == Metric::salvaged_co2e_kg && !(salvage && co2e)) continue;
+    if (m == Metric::discounted_kg && !(discount && weight)) continue;
+    if (m == Metric::discounted_co2e_kg && !(discount && co2e)) continue;
     out.push_back(m);
   }
   return out;
@@ -164,11 +184,12 @@ RunResult run_policies(const Scenario& scenario, const std::vector<Policy>& poli
           const auto& sub = slot.substituted[p];
           for (size_t k = 0; k < sub.size(); ++k) per_pair[k] += static_cast<double>(sub[k]);
         }
-        result.values[p].push_back(compute_metrics(per_item, scenario.items));
+        const std::vector<Item>& items_p = policies[p].seen(scenario).items;
+        result.values[p].push_back(compute_metrics(per_item, items_p));
         if (n_pairs > 0) result.substituted[p].push_back(std::move(per_pair));
         PolicyBreakdown& b = result.breakdown[p];
         b.values.push_back(
-            breakdown_values(scenario, dimensions[p],
+            breakdown_values(scenario, items_p, dimensions[p],
                              std::span<const StoreTallies>(slots).subspan(
                                  static_cast<size_t>(r * stores), static_cast<size_t>(stores)),
                              p));

@@ -230,6 +230,7 @@ struct MarkdownDraft {
   Field<int> from_hour;
   Field<double> price;
   Field<double> uplift;
+  bool surplus_only = false;
 };
 
 /// One `substitutes` entry as written; the id is resolved once every item has been read.
@@ -413,6 +414,7 @@ void read_markdown(Params& p, Field<MarkdownDraft>& f, const ItemContext& ctx) {
   }
   d.price = number_field(*mp, "price", Range::between(0, kMaxMoney));
   d.uplift = number_field(*mp, "uplift", Range::between(0, kMaxFactor));
+  d.surplus_only = mp->boolean("surplus_only", false);
   mp->finish();
   f.value = d;
 }
@@ -583,6 +585,7 @@ Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
     m.from_hour = markdown.value->from_hour.value.value_or(0);
     m.price = discounted_price(markdown.value->price, "markdown", !it.markdown.given);
     m.uplift = markdown.value->uplift.value.value_or(0.0);
+    m.surplus_only = markdown.value->surplus_only;
     item.markdown = m;
   }
 
@@ -646,6 +649,197 @@ Item build_item(const ItemDraft& it, const ItemDraft& def, Params& p) {
                           std::move(hint));
   }
   return item;
+}
+
+/// `leftovers:` on a policy as written: a disposition for every item, or a mapping with the
+/// item keys that say how leftovers are handled and, optionally, which items it applies to.
+struct PolicyLeftoversDraft {
+  Location where;  ///< of the value
+  std::string path;
+  Field<Leftovers> rule;
+  Field<NextDayDraft> next_day;
+  Field<MarkdownDraft> markdown;
+  bool no_markdown = false;  ///< `markdown: none`: the policy removes the items' markdown
+  Field<double> salvage_value;
+  bool items_given = false;
+  std::vector<std::pair<std::string, Location>> items;           ///< ids as written
+  std::optional<std::pair<std::string, std::string>> attribute;  ///< `where: { key: value }`
+  Location attribute_where;
+};
+
+std::optional<PolicyLeftoversDraft> read_policy_leftovers(Params& pp, const ItemContext& ctx) {
+  if (!pp.has("leftovers")) return std::nullopt;
+  const std::initializer_list<std::string_view> rules = {"discard", "salvage", "donate",
+                                                         "discount_next_day"};
+  PolicyLeftoversDraft d;
+  d.where = pp.location("leftovers");
+  d.path = pp.path_of("leftovers");
+  const YAML::Node node = pp.raw("leftovers");
+  Diagnostics& diag = pp.diagnostics();
+  if (!node.IsMap()) {
+    read_leftovers(pp, "leftovers", rules, d.rule);
+    if (!d.rule.value) return std::nullopt;  // reported
+    return d;
+  }
+  auto lp = pp.mapping("leftovers");
+  if (!lp) return std::nullopt;
+  read_leftovers(*lp, "rule", rules, d.rule);
+  read_next_day(*lp, d.next_day);
+  if (lp->has("markdown") && lp->raw("markdown").IsScalar() &&
+      lp->raw("markdown").Scalar() == "none") {
+    d.no_markdown = true;
+  } else {
+    read_markdown(*lp, d.markdown, ctx);
+  }
+  d.salvage_value = number_field(*lp, "salvage_value", Range::between(0, kMaxMoney));
+  if (lp->has("items")) {
+    d.items_given = true;
+    const YAML::Node list = lp->raw("items");
+    const std::string list_path = lp->path_of("items");
+    if (!list.IsSequence() || list.size() == 0) {
+      diag.error(location_of(list, pp.file()),
+                 fmt::format("{} must be a list of item ids such as [bread, salad] (got {})",
+                             list_path, describe_value(list)),
+                 "leave items out to apply the rule to every item");
+    }
+    for (size_t j = 0; list.IsSequence() && j < list.size(); ++j) {
+      if (!list[j].IsScalar()) {
+        diag.error(location_of(list[j], pp.file()),
+                   fmt::format("{}[{}] must be an item id (got {})", list_path, j,
+                               describe_value(list[j])));
+        continue;
+      }
+      d.items.emplace_back(list[j].Scalar(), location_of(list[j], pp.file()));
+    }
+  }
+  if (lp->has("where")) {
+    const YAML::Node w = lp->raw("where");
+    d.attribute_where = location_of(w, pp.file());
+    if (!w.IsMap() || w.size() != 1 || !w.begin()->first.IsScalar() ||
+        !w.begin()->second.IsScalar()) {
+      diag.error(d.attribute_where,
+                 fmt::format("{} must be one item attribute and its value such as "
+                             "{{ category: bakery }} (got {})",
+                             lp->path_of("where"), describe_value(w)));
+    } else {
+      d.attribute = std::pair{w.begin()->first.Scalar(), w.begin()->second.Scalar()};
+    }
+    if (d.items_given) {
+      diag.error(d.attribute_where, fmt::format("{} gives both items and where", d.path),
+                 "choose the items by their ids or by one attribute, not both");
+    }
+  }
+  const bool says_something =
+      d.rule.given || d.next_day.given || lp->has("markdown") || d.salvage_value.given;
+  if (!says_something) {
+    diag.error(d.where, fmt::format("{} says nothing about leftovers", d.path),
+               "give rule (discard, salvage, donate or discount_next_day), next_day, markdown "
+               "or salvage_value");
+  }
+  lp->finish();
+  return d;
+}
+
+/// The items as a policy with `leftovers:` handles them: the policy's settings replace the
+/// item's own for the items it selects (all of them unless `items` or `where` says otherwise).
+/// Problems are reported once per policy, naming the first item concerned.
+std::vector<Item> apply_policy_leftovers(const PolicyLeftoversDraft& d,
+                                         const std::vector<Item>& items, Diagnostics& diag) {
+  std::vector<char> chosen(items.size(), d.items_given || d.attribute ? 0 : 1);
+  for (const auto& written_id : d.items) {
+    const std::string& id = written_id.first;
+    const Location& where = written_id.second;
+    const auto found =
+        std::find_if(items.begin(), items.end(), [&](const Item& it) { return it.id == id; });
+    if (found == items.end()) {
+      std::vector<std::string> ids;
+      for (const Item& it : items) ids.push_back(it.id);
+      const std::string near = closest_name(id, ids);
+      diag.error(where, fmt::format("{}.items: '{}' is not an item id", d.path, id),
+                 near.empty() ? std::string() : fmt::format("did you mean '{}'?", near));
+      continue;
+    }
+    chosen[static_cast<size_t>(found - items.begin())] = 1;
+  }
+  if (d.attribute) {
+    bool any = false;
+    for (size_t i = 0; i < items.size(); ++i) {
+      const auto a = items[i].attributes.find(d.attribute->first);
+      if (a == items[i].attributes.end() || a->second != d.attribute->second) continue;
+      chosen[i] = 1;
+      any = true;
+    }
+    if (!any) {
+      diag.error(d.attribute_where,
+                 fmt::format("{}.where: no item has {}: {}", d.path, d.attribute->first,
+                             d.attribute->second),
+                 "check the attribute name and value against the items' attributes");
+    }
+  }
+  std::vector<Item> out = items;
+  bool next_day_reported = false;
+  bool price_reported = false;
+  bool salvage_reported = false;
+  for (size_t i = 0; i < items.size(); ++i) {
+    if (chosen[i] == 0) continue;
+    Item& it = out[i];
+    if (d.rule.value) it.leftovers = *d.rule.value;
+    if (d.salvage_value.value) it.salvage_value = *d.salvage_value.value;
+    const auto price_ok = [&](double price, std::string_view key, Location where) {
+      if (price <= it.price || price_reported) return;
+      price_reported = true;
+      diag.error(where,
+                 fmt::format("{}.{}.price ({}) must be at most the price of item '{}' ({})", d.path,
+                             key, price, it.id, it.price),
+                 "a discounted unit sells at most at the full price");
+    };
+    if (it.leftovers == Leftovers::discount_next_day) {
+      if (d.next_day.value) {
+        NextDayDiscount nd;
+        const NextDayDraft& nx = *d.next_day.value;
+        nd.price = nx.price.value.value_or(it.price / 2.0);
+        if (nx.price.value) price_ok(*nx.price.value, "next_day", nx.price.where);
+        nd.fallback = nx.fallback.value.value_or(Leftovers::discard);
+        nd.bargain_demand = nx.bargain_demand.value.value_or(0.0);
+        it.next_day = nd;
+      } else if (!it.next_day) {
+        it.next_day = NextDayDiscount{it.price / 2.0, Leftovers::discard, 0.0};
+      }
+    } else {
+      it.next_day.reset();
+      if (d.next_day.given && !next_day_reported) {
+        next_day_reported = true;
+        diag.error(d.next_day.where,
+                   fmt::format("{}.next_day is given but item '{}' has leftovers {}", d.path, it.id,
+                               to_string(it.leftovers)),
+                   "set rule: discount_next_day to sell leftovers one more day at "
+                   "next_day.price, or remove next_day");
+      }
+    }
+    if (d.no_markdown) {
+      it.markdown.reset();
+    } else if (d.markdown.value) {
+      const MarkdownDraft& md = *d.markdown.value;
+      Markdown m;
+      m.from_hour = md.from_hour.value.value_or(0);
+      m.price = md.price.value.value_or(it.price / 2.0);
+      if (md.price.value) price_ok(*md.price.value, "markdown", md.price.where);
+      m.uplift = md.uplift.value.value_or(0.0);
+      m.surplus_only = md.surplus_only;
+      it.markdown = m;
+    }
+    const bool salvaged = it.leftovers == Leftovers::salvage ||
+                          (it.next_day && it.next_day->fallback == Leftovers::salvage);
+    if (salvaged && it.salvage_value >= it.unit_cost && !salvage_reported) {
+      salvage_reported = true;
+      diag.error(d.salvage_value.given ? d.salvage_value.where : d.where,
+                 fmt::format("{}: item '{}' would be salvaged at {} but costs {}; the salvage "
+                             "value must be less than unit_cost",
+                             d.path, it.id, it.salvage_value, it.unit_cost),
+                 "otherwise every extra unit ordered would pay");
+    }
+  }
+  return out;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -1160,12 +1354,23 @@ class ScenarioReader {
       }
       const bool observe_intraday =
           pp.choice("observe", "daily", {"daily", "intraday"}) == "intraday";
+      const ItemContext ctx{scenario_.calendar.open_hour, scenario_.calendar.close_hour, hours_ok_,
+                            false};
+      const auto leftovers = read_policy_leftovers(pp, ctx);
       pp.finish();
       // Built once: assigning over an existing YAML::Node would rewrite the node it refers to.
-      scenario_.policies.push_back(
-          PolicySpec{name.value_or(""), location_of(node, file_), forecast.value_or(PartSpec{}),
-                     censoring.value_or(PartSpec{}), quantity.value_or(PartSpec{}), adjustments,
-                     observe_intraday});
+      scenario_.policies.push_back(PolicySpec{name.value_or(""),
+                                              location_of(node, file_),
+                                              forecast.value_or(PartSpec{}),
+                                              censoring.value_or(PartSpec{}),
+                                              quantity.value_or(PartSpec{}),
+                                              adjustments,
+                                              observe_intraday,
+                                              {}});
+      if (leftovers) {
+        scenario_.policies.back().items =
+            apply_policy_leftovers(*leftovers, scenario_.items, diag_);
+      }
     }
   }
 

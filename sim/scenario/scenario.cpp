@@ -29,6 +29,12 @@ bool applies(const CalendarEvent& e, const std::string& store_id) {
 }
 }  // namespace
 
+const std::vector<Item>& Scenario::items_of(int policy) const {
+  if (policy < 0 || static_cast<size_t>(policy) >= policies.size()) return items;
+  const std::vector<Item>& own = policies[static_cast<size_t>(policy)].items;
+  return own.empty() ? items : own;
+}
+
 bool Scenario::is_open(int store, int day) const {
   const Store& s = stores[static_cast<size_t>(store)];
   if (!s.open_weekdays[static_cast<size_t>(weekday_of(day))]) return false;

@@ -61,12 +61,15 @@ struct NextDayDiscount {
   double bargain_demand = 0.0;  ///< bargain-only customers, as a share of the item's demand
 };
 
-/// Evening markdown: from `from_hour`, units on their last sellable day sell at `price`.
+/// Evening markdown: from `from_hour`, units on their last sellable day sell at `price`; with
+/// `surplus_only`, only as many of them as the store expects to be left at close (its forecast
+/// of the rest of the day, the intraday profile and its stock), the others stay at full price.
 struct Markdown {
   int from_hour = 0;    ///< clock hour, after opening and before closing
   double price = 0.0;   ///< [half the item price]
   double uplift = 0.0;  ///< bargain-only customers in markdown hours, as a share of the item's
                         ///< customers in those hours
+  bool surplus_only = false;  ///< mark down only the expected surplus of last-day units
 };
 
 struct Item {
@@ -161,6 +164,9 @@ struct PolicySpec {
   PartSpec quantity;
   std::vector<PartSpec> adjustments;
   bool observe_intraday = false;  ///< `observe: intraday`: sales by hour and sell-out times
+  /// The items as this policy handles their leftovers (`leftovers:` on the policy: disposition,
+  /// next-day discount, markdown, salvage value); empty when the policy keeps the items' own.
+  std::vector<Item> items;
 };
 
 /// A validated scenario (scenario.md).
@@ -185,6 +191,8 @@ struct Scenario {
   int baseline = 0;                ///< index into policies
   std::optional<DrillSpec> drill;  ///< `drill:`: a training exercise (larder drill)
 
+  /// The items as policy `policy` handles their leftovers (its `leftovers:`, else the items).
+  const std::vector<Item>& items_of(int policy) const;
   int scored_days() const { return horizon.days - horizon.warmup_days; }
   /// Weekday (0 = Monday) of day index `day`.
   int weekday_of(int day) const { return (horizon.start_weekday + day) % kDaysPerWeek; }
