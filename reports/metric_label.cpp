@@ -34,8 +34,16 @@ constexpr std::array kLabels = std::to_array<MetricLabel>({
     {"waste_value", "Waste at cost", "money"},
     {"waste_kg", "Waste", "kg"},
     {"co2e_kg", "Waste", "kg CO2e"},
-    // Fields other branches add to the enumeration; labelled here already.
     {"surplus_units", "Surplus (not sold at full price before its last close)", "units"},
+    {"surplus_share", "Surplus", "% of units delivered"},
+    {"surplus_kg", "Surplus", "kg"},
+    {"surplus_co2e_kg", "Surplus", "kg CO2e"},
+    {"donated_kg", "Donated", "kg"},
+    {"donated_co2e_kg", "Donated", "kg CO2e"},
+    {"salvaged_kg", "Salvaged", "kg"},
+    {"salvaged_co2e_kg", "Salvaged", "kg CO2e"},
+    {"discounted_kg", "Sold at a discount", "kg"},
+    {"discounted_co2e_kg", "Sold at a discount", "kg CO2e"},
 });
 
 bool is_share(std::string_view unit) {

@@ -146,15 +146,17 @@ std::string sweep_html(const std::vector<Setting>& settings, const std::vector<S
                       info.currency,
                       "Profit against the in-stock share achieved at close: what each point of "
                       "service costs or earns.") +
-          sweep_chart(settings, points, Metric::in_stock_at_close, Metric::waste_share,
+          sweep_chart(settings, points, Metric::in_stock_at_close, marks.waste,
                       &marks.waste_in_stock, info.currency,
-                      "Waste against the in-stock share achieved at close. Ringed: no other "
-                      "row has both less waste and more in stock (down and to the right is "
-                      "better).") +
-          sweep_chart(settings, points, Metric::waste_share, Metric::profit, &marks.profit_waste,
+                      fmt::format("{} against the in-stock share achieved at close. Ringed: no "
+                                  "other row has both less of it and more in stock (down and to "
+                                  "the right is better).",
+                                  metric_words(metric_name(marks.waste)))) +
+          sweep_chart(settings, points, marks.waste, Metric::profit, &marks.profit_waste,
                       info.currency,
-                      "Profit against waste. Ringed: no other row has both less waste and more "
-                      "profit (up and to the left is better)."));
+                      fmt::format("Profit against {}. Ringed: no other row has both less of it "
+                                  "and more profit (up and to the left is better).",
+                                  metric_words(metric_name(marks.waste)))));
   body += html_section("points", "Points and policies",
                        rows_table(settings, points, marks, info.currency));
   body += footer(info.version, "sweep.csv");

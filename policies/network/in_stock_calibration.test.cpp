@@ -38,7 +38,7 @@ TEST_CASE(
     "[network][calibration]") {
   CloseRecord r;
   r.add(0.75, 600, 420);
-  r.add(0.7501, 400, 280);  // the same bin: pooled
+  r.add(0.75, 400, 280);  // pooled with the first
   const InStockCalibration c = r.fit(0.1);
   CHECK(c.shift == Approx(-0.150089253).margin(1e-4));
   CHECK(c.slope == Approx(1.0).margin(1e-4));

@@ -166,10 +166,11 @@ struct StoreRun::Lane {
   /// Heap bytes of the lane's own buffers (not its policy parts').
   std::size_t bytes() const {
     return sizeof(Lane) + shelf.bytes() + held(pipeline) + held(pipeline_view) + held(observed) +
-           held(tally) + held(closes) + held(goodwill) + held(demand) + held(next_day) + held(substituted) +
-           held(acceptors) + held(others) + held(pools) + held(sold_by_hour) + held(handling) +
-           held_each(bargain_plans) + held(bargain) + held(today) + held(predicted) +
-           held(forecast) + held(day_forecast) + held(estimates) + held(inputs) + held(orders);
+           held(tally) + held(closes) + held(goodwill) + held(demand) + held(next_day) +
+           held(substituted) + held(acceptors) + held(others) + held(pools) + held(sold_by_hour) +
+           held(handling) + held_each(bargain_plans) + held(bargain) + held(today) +
+           held(predicted) + held(forecast) + held(day_forecast) + held(estimates) + held(inputs) +
+           held(orders);
   }
 };
 

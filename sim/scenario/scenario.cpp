@@ -6,26 +6,34 @@ namespace larder {
 
 const char* to_string(DemandFamily f) {
   switch (f) {
-    case DemandFamily::poisson: return "poisson";
-    case DemandFamily::negative_binomial: return "negative_binomial";
-    case DemandFamily::normal: return "normal";
+    case DemandFamily::poisson:
+      return "poisson";
+    case DemandFamily::negative_binomial:
+      return "negative_binomial";
+    case DemandFamily::normal:
+      return "normal";
   }
   return "?";
 }
 
 const char* to_string(Leftovers l) {
   switch (l) {
-    case Leftovers::discard: return "discard";
-    case Leftovers::salvage: return "salvage";
-    case Leftovers::donate: return "donate";
-    case Leftovers::discount_next_day: return "discount_next_day";
+    case Leftovers::discard:
+      return "discard";
+    case Leftovers::salvage:
+      return "salvage";
+    case Leftovers::donate:
+      return "donate";
+    case Leftovers::discount_next_day:
+      return "discount_next_day";
   }
   return "?";
 }
 
 namespace {
 bool applies(const CalendarEvent& e, const std::string& store_id) {
-  return e.stores.empty() || std::find(e.stores.begin(), e.stores.end(), store_id) != e.stores.end();
+  return e.stores.empty() ||
+         std::find(e.stores.begin(), e.stores.end(), store_id) != e.stores.end();
 }
 }  // namespace
 
