@@ -40,6 +40,14 @@ void CloseRecord::add(double expected, std::int64_t open_days, std::int64_t in_s
   total_ += open_days;
 }
 
+void CloseRecord::decay(double keep) {
+  for (size_t k = 0; k < open_.size(); ++k) {
+    expected_sum_[k] *= keep;
+    open_[k] *= keep;
+    in_stock_[k] *= keep;
+  }
+}
+
 InStockCalibration CloseRecord::fit(double slope_sd) const {
   InStockCalibration c;
   if (total_ == 0) return c;

@@ -36,6 +36,8 @@ class CloseRecord {
   /// probability `expected`.
   void add(double expected, std::int64_t open_days, std::int64_t in_stock_days);
   std::int64_t closes() const { return total_; }
+  /// Keeps a share `keep` of the weight of every close seen so far (older closes count less).
+  void decay(double keep);
   /// The maximum-likelihood calibration (Newton's method on the log-likelihood plus the log
   /// prior -(slope - 1)^2 / (2 slope_sd^2)); the identity with no closes. `slope_sd` <= 0 fits
   /// without a prior (the plain probit regression).

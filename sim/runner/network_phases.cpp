@@ -8,6 +8,12 @@
 
 namespace larder {
 
+/// Per re-plan, the weight earlier closes keep in the calibration. The forecasts' bias moves
+/// with the levels the plans set (they learn from sales cut off at those levels), so only the
+/// closes since the last plan are kept: on grouping.yaml that met the target within 1 point
+/// (69.1-69.7% for 70%), against 68.6-69.1% keeping half and 68.0-68.5% keeping all.
+constexpr double kCalibrationMemory = 0.0;
+
 std::vector<int> network_policies(std::span<const Policy> policies) {
   std::vector<int> out;
   for (size_t k = 0; k < policies.size(); ++k) {
@@ -82,6 +88,7 @@ void PhasedRuns::replan(int rep, int policy) {
       f.seen[k] = counts[i];
     }
   }
+  f.closes.decay(kCalibrationMemory);
   for (size_t g = 0; g < open.size(); ++g) f.closes.add(f.expected[g], open[g], in_stock[g]);
   f.calibration = f.closes.fit();
   const NetworkPlan p = plan(rep, policy, false);
