@@ -38,7 +38,8 @@ void correct(LevelPoint& point, const LevelCorrection& c, size_t l, double mean)
   point.leftover *= c.waste_ratio[l];
 }
 
-/// The one-day curve of one store-item-day, corrected for the item's dynamics.
+}  // namespace
+
 void day_curve(const DemandForecast& f, DemandFamily family, const Economics& e,
                const LevelCorrection* c, std::span<const double> levels, size_t first_level,
                std::span<LevelPoint> out) {
@@ -47,8 +48,6 @@ void day_curve(const DemandForecast& f, DemandFamily family, const Economics& e,
   for (size_t l = 0; l < out.size(); ++l)
     correct(out[l], *c, first_level + l, std::max(f.mean, 0.0));
 }
-
-}  // namespace
 
 NetworkPlan plan_network(const Scenario& scenario, const NetworkTarget& target,
                          std::span<const StorePlanInput> stores, const PlanLearning& learning,

@@ -62,6 +62,12 @@ Economics plan_economics(const Scenario& scenario, const Item& item);
 /// The law a plan assumes for a day with forecast `f` under `family`.
 CountLaw plan_law(const DemandForecast& f, DemandFamily family);
 
+/// One store-item-day's curve at `levels` (the plan grid's levels from index `first_level` on):
+/// the one-day newsvendor of forecast `f`, corrected by the item's `correction` (null: none).
+void day_curve(const DemandForecast& f, DemandFamily family, const Economics& e,
+               const LevelCorrection* correction, std::span<const double> levels,
+               size_t first_level, std::span<LevelPoint> out);
+
 /// The days a plan made on `day` looks at: kPlanDays days from `day`, moved back so they stay
 /// within a horizon of `horizon_days` days.
 std::vector<int> plan_days(int day, int horizon_days);

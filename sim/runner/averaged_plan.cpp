@@ -7,19 +7,13 @@
 #include <limits>
 
 #include "policies/network/level_curve.hpp"
-#include "policies/quantity/critical_fractile.hpp"
+#include "policies/network/network_plan.hpp"
 #include "sim/runner/network_phases.hpp"
 #include "sim/stats/count_law.hpp"
 
 namespace larder {
 
 namespace {
-
-/// The law the plan assumes for a forecast (as network_plan.cpp does).
-CountLaw law_for(const DemandForecast& f, DemandFamily family) {
-  const double mean = std::max(f.mean, 0.0);
-  return CountLaw::from_moments(family, mean, family == DemandFamily::poisson ? mean : f.variance);
-}
 
 double variance_for(const DemandForecast& f, DemandFamily family) {
   return family == DemandFamily::poisson ? std::max(f.mean, 0.0) : f.variance;
@@ -28,8 +22,8 @@ double variance_for(const DemandForecast& f, DemandFamily family) {
 }  // namespace
 
 AveragedPlan average_plans(const Scenario& s, const NetworkTarget& target,
-                           std::span<const PlanSample> samples,
-                           std::span<const double> level_grid) {
+                           std::span<const PlanSample> samples, std::span<const double> level_grid,
+                           std::span<const LevelCorrection> correction) {
   const size_t n_items = s.items.size();
   const size_t n_store_items = s.stores.size() * n_items;
   AveragedPlan out;
@@ -45,10 +39,10 @@ AveragedPlan average_plans(const Scenario& s, const NetworkTarget& target,
   }
 
   std::vector<Economics> economics;
-  for (const Item& it : s.items) {
-    economics.push_back({it.price, it.unit_cost, leftover_recovery(s, it, it.stockout_penalty),
-                         it.stockout_penalty});
-  }
+  for (const Item& it : s.items) economics.push_back(plan_economics(s, it));
+  const auto correction_of = [&](size_t i) -> const LevelCorrection* {
+    return i < correction.size() && !correction[i].empty() ? &correction[i] : nullptr;
+  };
   out.margins.assign(static_cast<size_t>(out.groups.count()), GroupMargins{});
   out.days.assign(n_store_items, 0.0);
   out.in_stock.assign(n_store_items, 0.0);
@@ -69,8 +63,10 @@ AveragedPlan average_plans(const Scenario& s, const NetworkTarget& target,
           const DemandFamily family = target.family[i];
           out.margins[static_cast<size_t>(out.groups.of_store_item[k])].add(
               f.mean, variance_for(f, family), economics[i]);
+          const auto g = static_cast<size_t>(out.groups.of_store_item[k]);
           const double level = out.level[k];
-          level_curve(law_for(f, family), economics[i], std::span<const double>(&level, 1), one);
+          day_curve(f, family, economics[i], correction_of(i), std::span<const double>(&level, 1),
+                    static_cast<size_t>(out.allocation.level[g]), one);
           out.days[k] += 1.0;
           out.quantity[k] += one[0].quantity;
           out.in_stock[k] += one[0].in_stock;
@@ -127,7 +123,7 @@ AveragedPlan averaged_plan(const SimSetup& setup, int policy, int day, int repli
       samples.push_back(std::move(sample));
     }
   }
-  return average_plans(sc, target, samples, grid);
+  return average_plans(sc, target, samples, grid, runs.corrections(policy));
 }
 
 }  // namespace larder

@@ -44,9 +44,11 @@ struct AveragedPlan {
 };
 
 /// Averages `samples` (plans of policy target `target` on scenario `s`, all with the groups of
-/// `target.grouping` and the grid `level_grid`).
+/// `target.grouping` and the grid `level_grid`). The per-store-item figures use each item's
+/// level correction (`correction`, per item; empty: none), as the plans' own curves do.
 AveragedPlan average_plans(const Scenario& s, const NetworkTarget& target,
-                           std::span<const PlanSample> samples, std::span<const double> level_grid);
+                           std::span<const PlanSample> samples, std::span<const double> level_grid,
+                           std::span<const LevelCorrection> correction = {});
 
 /// Runs replications 0 .. replications - 1 to `day`, then takes the plan of policy `policy`
 /// on each of days day .. day + days - 1 of each replication, and averages them.

@@ -47,6 +47,10 @@ class PhasedRuns {
   /// The plan policy `policy` would make for replication `first_rep + rep` on day `day_`, with
   /// the calibration learned up to its last re-plan.
   NetworkPlan plan(int rep, int policy, bool detail) const;
+  /// Policy `policy`'s level corrections, per item (empty when none is needed).
+  std::span<const LevelCorrection> corrections(int policy) const {
+    return (*corrections_)[static_cast<size_t>(policy)];
+  }
   /// The run of store `store` in replication `first_rep + rep` (after run_until: its last day).
   const StoreRun& run(int rep, int store) const {
     return *runs_[static_cast<size_t>(rep * stores_ + store)];
