@@ -122,6 +122,20 @@ std::pair<double, double> data_extent(const Range& items, Lo lo_of, Hi hi_of) {
   return {lo, hi};
 }
 
+/// The axes of points with crosshairs (x, x_half, y, y_half): each spans its points' extent,
+/// crosshairs included.
+template <typename Points>
+std::pair<Axis, Axis> crosshair_axes(const Points& points) {
+  using P = typename Points::value_type;
+  const auto [x_lo, x_hi] = data_extent(
+      points, [](const P& p) { return p.x - half_or_zero(p.x_half); },
+      [](const P& p) { return p.x + half_or_zero(p.x_half); });
+  const auto [y_lo, y_hi] = data_extent(
+      points, [](const P& p) { return p.y - half_or_zero(p.y_half); },
+      [](const P& p) { return p.y + half_or_zero(p.y_half); });
+  return {nice_axis(x_lo, x_hi), nice_axis(y_lo, y_hi)};
+}
+
 // --- bar chart --------------------------------------------------------------------------
 
 constexpr double kBarRow = 30.0;
@@ -301,14 +315,7 @@ std::string svg_series_chart(const SeriesChart& chart) {
   const double height = draw_series_legend(nullptr, series, chart.connect, legend_top, chart.width);
   std::vector<SeriesPoint> all;
   for (const PointSeries& s : series) all.insert(all.end(), s.points.begin(), s.points.end());
-  const auto [x_lo, x_hi] = data_extent(
-      all, [](const SeriesPoint& p) { return p.x - half_or_zero(p.x_half); },
-      [](const SeriesPoint& p) { return p.x + half_or_zero(p.x_half); });
-  const auto [y_lo, y_hi] = data_extent(
-      all, [](const SeriesPoint& p) { return p.y - half_or_zero(p.y_half); },
-      [](const SeriesPoint& p) { return p.y + half_or_zero(p.y_half); });
-  const Axis ax = nice_axis(x_lo, x_hi);
-  const Axis ay = nice_axis(y_lo, y_hi);
+  const auto [ax, ay] = crosshair_axes(all);
   const LinearScale x(ax.lo, ax.hi, f.left, f.right);
   const LinearScale y(ay.lo, ay.hi, f.bottom, f.top);
 
@@ -433,14 +440,7 @@ std::string svg_scatter(const ScatterChart& chart) {
   }
   const Frame f{64.0, 56.0, chart.width - 24.0, 372.0};
   const double height = f.bottom + 46.0;
-  const auto [x_lo, x_hi] = data_extent(
-      points, [](const ScatterPoint& p) { return p.x - half_or_zero(p.x_half); },
-      [](const ScatterPoint& p) { return p.x + half_or_zero(p.x_half); });
-  const auto [y_lo, y_hi] = data_extent(
-      points, [](const ScatterPoint& p) { return p.y - half_or_zero(p.y_half); },
-      [](const ScatterPoint& p) { return p.y + half_or_zero(p.y_half); });
-  const Axis ax = nice_axis(x_lo, x_hi);
-  const Axis ay = nice_axis(y_lo, y_hi);
+  const auto [ax, ay] = crosshair_axes(points);
   const LinearScale x(ax.lo, ax.hi, f.left, f.right);
   const LinearScale y(ay.lo, ay.hi, f.bottom, f.top);
 
