@@ -214,26 +214,35 @@ void draw_series(SvgDocument& svg, std::span<const double> xs, const LineSeries&
   flush();
 }
 
-/// Legend entries (a line sample in the series' stroke, then its name), wrapping across rows
-/// from `top`; returns the y below the last row.
-double draw_legend(SvgDocument* svg, std::span<const LineSeries> series, double top,
-                   double picture_width) {
+/// Lays out legend entries named `names` in rows from `top`, wrapping at the picture's margin,
+/// and calls `draw(i, x, y)` for each (its sample at x .. x + 24, its name from x + 30 on the
+/// baseline y); returns the y below the last row.
+template <typename Names, typename Draw>
+double legend_rows(const Names& names, double top, double picture_width, Draw&& draw) {
   double x = kMargin;
   double y = top;
-  for (std::size_t i = 0; i < series.size(); ++i) {
-    const double w = 30.0 + text_width(series[i].name) + 18.0;
+  for (std::size_t i = 0; i < names.size(); ++i) {
+    const double w = 30.0 + text_width(names[i].name) + 18.0;
     if (x > kMargin && x + w > picture_width - kMargin) {
       x = kMargin;
       y += 18.0;
     }
-    if (svg != nullptr) {
-      const Stroke s{kPalette[i % kPalette.size()], 2.5, kDashes[i % kDashes.size()]};
-      svg->line({x, y - 4.0}, {x + 24.0, y - 4.0}, s);
-      svg->text({x + 30.0, y}, series[i].name, {Anchor::start, 12.0});
-    }
+    draw(i, x, y);
     x += w;
   }
   return y + 10.0;
+}
+
+/// Legend entries (a line sample in the series' stroke, then its name), wrapping across rows
+/// from `top`; returns the y below the last row.
+double draw_legend(SvgDocument* svg, std::span<const LineSeries> series, double top,
+                   double picture_width) {
+  return legend_rows(series, top, picture_width, [&](std::size_t i, double x, double y) {
+    if (svg == nullptr) return;
+    const Stroke s{kPalette[i % kPalette.size()], 2.5, kDashes[i % kDashes.size()]};
+    svg->line({x, y - 4.0}, {x + 24.0, y - 4.0}, s);
+    svg->text({x + 30.0, y}, series[i].name, {Anchor::start, 12.0});
+  });
 }
 
 // --- series chart -----------------------------------------------------------------------
@@ -278,25 +287,15 @@ constexpr double kEmphasisRadius = 7.0;
 /// returns the y below the last row.
 double draw_series_legend(SvgDocument* svg, std::span<const PointSeries> series, bool connect,
                           double top, double picture_width) {
-  double x = kMargin;
-  double y = top;
-  for (std::size_t i = 0; i < series.size(); ++i) {
-    const double w = 30.0 + text_width(series[i].name) + 18.0;
-    if (x > kMargin && x + w > picture_width - kMargin) {
-      x = kMargin;
-      y += 18.0;
+  return legend_rows(series, top, picture_width, [&](std::size_t i, double x, double y) {
+    if (svg == nullptr) return;
+    const std::string_view colour = kPalette[i % kPalette.size()];
+    if (connect) {
+      svg->line({x, y - 4.0}, {x + 24.0, y - 4.0}, {colour, 2.0, kDashes[i % kDashes.size()]});
     }
-    if (svg != nullptr) {
-      const std::string_view colour = kPalette[i % kPalette.size()];
-      if (connect) {
-        svg->line({x, y - 4.0}, {x + 24.0, y - 4.0}, {colour, 2.0, kDashes[i % kDashes.size()]});
-      }
-      draw_marker(*svg, i, {x + 12.0, y - 4.0}, kMarkerRadius, colour, {"#ffffff", 1.0});
-      svg->text({x + 30.0, y}, series[i].name, {Anchor::start, 12.0});
-    }
-    x += w;
-  }
-  return y + 10.0;
+    draw_marker(*svg, i, {x + 12.0, y - 4.0}, kMarkerRadius, colour, {"#ffffff", 1.0});
+    svg->text({x + 30.0, y}, series[i].name, {Anchor::start, 12.0});
+  });
 }
 
 }  // namespace

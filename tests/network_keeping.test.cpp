@@ -23,6 +23,7 @@
 #include <string>
 
 #include "policies/quantity/fractile_rule.hpp"
+#include "reports/comparison.hpp"
 #include "tests/fixture.hpp"
 
 namespace larder {
@@ -58,15 +59,6 @@ policies:
 )";
 }
 
-Estimate paired(const RunResult& r, int a, int b, Metric m) {
-  std::vector<double> d;
-  for (size_t rep = 0; rep < r.values[0].size(); ++rep) {
-    d.push_back(at(r.values[static_cast<size_t>(a)][rep], m) -
-                at(r.values[static_cast<size_t>(b)][rep], m));
-  }
-  return estimate_mean(d);
-}
-
 TEST_CASE("network plans: per-item levels earn at least one level's for items that keep",
           "[engine][network][keeping]") {
   const int lead = GENERATE(1, 2);
@@ -82,11 +74,11 @@ TEST_CASE("network plans: per-item levels earn at least one level's for items th
     CHECK(e.mean <= 0.9 + 0.02 + 4.0 * e.stderr_);
   }
   // At the same achieved in-stock (within 4 standard errors of the paired difference) ...
-  const Estimate in = paired(r, 0, 1, Metric::in_stock_at_close);
+  const Estimate in = paired_difference(r, 0, 1, Metric::in_stock_at_close);
   INFO("per-item minus one level: in stock " << in.mean << " +- " << in.stderr_);
   CHECK(in.mean >= -4.0 * in.stderr_ - 0.005);
   // ... per-item levels earn at least as much.
-  const Estimate d = paired(r, 0, 1, Metric::profit);
+  const Estimate d = paired_difference(r, 0, 1, Metric::profit);
   INFO("per-item minus one level: profit " << d.mean << " +- " << d.stderr_);
   CHECK(d.mean >= -4.0 * d.stderr_);
 }
@@ -153,7 +145,7 @@ TEST_CASE(
   int best = -1;
   double best_profit = -1e300;
   for (int p = 1; p < static_cast<int>(r.policies.size()); ++p) {
-    const Estimate in = paired(r, p, 0, Metric::in_stock_at_close);
+    const Estimate in = paired_difference(r, p, 0, Metric::in_stock_at_close);
     if (in.mean < -4.0 * in.stderr_) continue;
     const double profit = test::metric_estimate(r, p, Metric::profit).mean;
     if (profit > best_profit) {
@@ -162,7 +154,7 @@ TEST_CASE(
     }
   }
   REQUIRE(best > 0);
-  const Estimate d = paired(r, 0, best, Metric::profit);
+  const Estimate d = paired_difference(r, 0, best, Metric::profit);
   INFO("plan minus best hand rule " << r.policies[static_cast<size_t>(best)] << ": profit "
                                     << d.mean << " +- " << d.stderr_);
   CHECK(d.mean >= -4.0 * d.stderr_);

@@ -4,8 +4,9 @@
 // then see at their closes says how far that expectation is off. The calibration is a probit
 // recalibration of the plan's in-stock probabilities,
 //     P(in stock at close) = Phi(shift + slope * Phi^-1(p)),
-// fitted by maximum likelihood to every close the stores have seen since the run began (open
-// days and days with a unit left, grouped by the p the plan expected for them), with a normal
+// fitted by maximum likelihood to the closes the stores have seen (open days and days with a
+// unit left, grouped by the p the plan expected for them; older closes weighted down by
+// CloseRecord::decay, network_phases.cpp keeps only those since the last plan), with a normal
 // prior on the slope around 1 so that a plan whose groups all share one level (one p) still
 // gets a shift. The same model as a binomial regression with a probit link (McCullagh and
 // Nelder, Generalized Linear Models, 2nd ed. 1989, section 4.3; checked against statsmodels'

@@ -33,9 +33,9 @@ struct PlanRecord {
 using PlanCorrections = std::vector<std::vector<LevelCorrection>>;
 
 /// Every store of a batch of replications, run in phases between re-plans. Each plan of a
-/// replication learns from the closes its stores have seen since day 0: the in-stock
-/// calibration (in_stock_calibration.hpp) of what the earlier plans expected against what the
-/// stores saw.
+/// replication learns from the closes its stores have seen since its last plan: the in-stock
+/// calibration (in_stock_calibration.hpp) of what that plan expected against what the stores
+/// saw.
 class PhasedRuns {
  public:
   /// Replications first_rep .. first_rep + n_reps - 1, every store, at day 0. `corrections`
